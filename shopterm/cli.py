@@ -1,0 +1,74 @@
+"""The ``shopterm`` command: starts the app, or answers one question (``calc``, ``export``)."""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+
+from shopterm import __version__
+
+#: ``shopterm calc`` subcommands, each in ``shopterm/commands/calc_<name>.py``.
+CALC_COMMANDS = ("limits", "wires", "passes", "gears", "dial", "starts", "identify")
+
+
+def _load(module: str):
+    try:
+        return importlib.import_module(module)
+    except ModuleNotFoundError as exc:
+        if exc.name == module:
+            return None
+        raise
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="shopterm",
+        description="Screw cutting on a manual lathe: thread limits, set-up, pass counter, "
+                    "three-wire readings and the job record.")
+    parser.add_argument("--version", action="version", version=f"shopterm {__version__}")
+    parser.add_argument("--config", metavar="PATH", help="config file to use")
+    parser.add_argument("--data-dir", metavar="DIR", help="where the job record is kept")
+    parser.add_argument("--check-config", nargs="?", const="", metavar="PATH",
+                        help="validate a config file (default: the one that would be used); "
+                             "exit 0 if good, 2 if not")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    calc = sub.add_parser("calc", help="answer one question and exit")
+    calc_sub = calc.add_subparsers(dest="calc", metavar="QUESTION", required=True)
+    for name in CALC_COMMANDS:
+        mod = _load(f"shopterm.commands.calc_{name}")
+        if mod is not None:
+            mod.register(calc_sub)
+    export = _load("shopterm.commands.export")
+    if export is not None:
+        export.register(sub)
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    from shopterm.errors import ShoptermError
+
+    argv = sys.argv[1:] if argv is None else argv
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    try:
+        if args.check_config is not None:
+            from shopterm.config import check_config_command
+            return check_config_command(args.check_config or args.config or None)
+        if args.command is None:
+            return _run_app(args)
+        return int(args.func(args) or 0)
+    except ShoptermError as exc:
+        print(f"shopterm: {exc}", file=sys.stderr)
+        return 2
+    except BrokenPipeError:
+        return 0
+
+
+def _run_app(args) -> int:
+    from shopterm.ui.app import run_app
+    return run_app(config_path=args.config, data_dir=args.data_dir)
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,1 @@
+"""The machine: leadscrew, change gears or gearbox, dials, compound scale, thread dial."""
