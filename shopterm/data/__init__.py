@@ -1,0 +1,1 @@
+"""Published tables as CSV, each named after its source; read with ``importlib.resources``."""
