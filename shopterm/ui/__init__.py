@@ -1,0 +1,1 @@
+"""The Textual app: the only part of shopterm that imports textual or rich."""
