@@ -63,6 +63,13 @@ def main(argv: list[str] | None = None) -> int:
         return 2
     except BrokenPipeError:
         return 0
+    except Exception as exc:  # a bug: say so in one line; SHOPTERM_DEBUG=1 shows the traceback
+        import os
+        if os.environ.get("SHOPTERM_DEBUG"):
+            raise
+        print(f"shopterm: internal error ({type(exc).__name__}: {exc}). Nothing was changed; "
+              "please report it (run with SHOPTERM_DEBUG=1 for details).", file=sys.stderr)
+        return 3
 
 
 def _run_app(args) -> int:
