@@ -390,7 +390,8 @@ def _read_class(token: str) -> _Class:
     return _Class(pg, int(m["cg"]) if m["cg"] else pg, pos)
 
 
-def _tolerances(d: float, pitch: float, c: _Class) -> tuple[float, float, float, list[str]]:
+@cache
+def _tolerances(d: float, pitch: float, c: _Class) -> tuple[float, float, float, tuple[str, ...]]:
     """Return (deviation, pitch-diameter tolerance, crest tolerance) [mm] and provisional notes."""
     kind = c.kind
     grades = (3, 4, 5, 6, 7, 8, 9) if kind == "external" else (4, 5, 6, 7, 8)
@@ -412,7 +413,7 @@ def _tolerances(d: float, pitch: float, c: _Class) -> tuple[float, float, float,
     if kind == "external" and _td2_provisional(row, c.pitch_grade):
         notes.append(f"Provisional: Td2 grade {c.pitch_grade} for this size rests on one "
                      "published copy of ISO 965-1.")
-    return dev, td2, tcrest, notes
+    return dev, td2, tcrest, tuple(notes)
 
 
 def _available(d: float, pitch: float, c: _Class) -> bool:
