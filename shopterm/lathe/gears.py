@@ -1,0 +1,478 @@
+"""Change-gear trains: which gears on the banjo make the lead wanted on this leadscrew.
+
+A train is *simple* (driver → idler → driven; the idler only turns the direction and does not
+change the ratio, so it is not named or counted) or *compound* (A drives B; C, keyed to B on the
+same stud, drives D: ratio A/B × C/D). With a quick-change box, each box position multiplies the
+ratio again; a box position may also be used with no change gears at all.
+
+Work lead = leadscrew pitch × fixed ratio × box ratio × Π drivers / Π driven.
+
+Every train the gear set allows is worked out once per gear set (cached): the ratios go into numpy
+arrays, sorted, and each lead is answered by ``np.searchsorted``. The few nearest candidates are
+then ranked with exact ``fractions.Fraction`` arithmetic, so "exact" means exact.
+
+References: published-values.md §8 (work pitch = leadscrew pitch × Π drivers / Π driven, from
+19th-century shop texts; Rose, *Modern Machine Shop Practice*, 4 tpi leadscrew 36/48 × 66/18 →
+11 tpi; 127 = 5 × 25.4 for exact metric from an inch leadscrew).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from fractions import Fraction
+from functools import lru_cache
+from typing import Iterable, Literal, Sequence
+
+from shopterm.errors import InvalidEntry
+from shopterm.lathe.machine import INCH_MM, GearboxPosition, Lathe, Leadscrew
+from shopterm.units import MM_PER_INCH, parse_number, split_unit
+
+TrainKind = Literal["simple", "compound", "box"]
+
+#: Default clearance margin of a compound train [teeth] (published-values.md §8, common practice).
+DEFAULT_MARGIN = 15
+
+#: Most distinct tooth counts a gear set may have (keeps the compound table a few MB).
+MAX_DISTINCT_GEARS = 60
+
+#: Most teeth a change gear may have (the table packs teeth into 12 bits).
+MAX_TEETH = 1000
+
+
+# --------------------------------------------------------------------------------------------
+# Reading what people type
+# --------------------------------------------------------------------------------------------
+
+def as_exact_lead(lead: float | int | Fraction) -> Fraction:
+    """Return a lead as an exact Fraction [mm].
+
+    A float is taken as the nearest fraction with a denominator up to 10**6, which recovers
+    inch leads such as 25.4/11 = 127/55 exactly.
+    lead [mm]
+    References: ISO 31-1 (1 in = 25.4 mm exactly).
+    """
+    if isinstance(lead, bool) or not isinstance(lead, (int, float, Fraction)):
+        raise InvalidEntry("A lead must be a number of millimetres, e.g. 1.5.")
+    exact = lead if isinstance(lead, Fraction) else Fraction(lead).limit_denominator(10**6)
+    if not (exact > 0) or (isinstance(lead, float) and not math.isfinite(lead)):
+        raise InvalidEntry("The lead must be greater than zero: type e.g. 1.5mm or 20tpi.")
+    return exact
+
+
+_TPI = re.compile(r"^(?P<n>.+?)\s*(?:tpi|t\.p\.i\.?)$", re.IGNORECASE)
+
+
+def _exact_number(text: str) -> Fraction:
+    value = parse_number(text)
+    return Fraction(value).limit_denominator(10**6)
+
+
+def parse_lead(text: str) -> Fraction:
+    """Return the lead typed as ``1.5mm``, ``1.5`` (mm), ``0.05in`` or ``20tpi``, exactly [mm].
+
+    References: ISO 31-1 (1 in = 25.4 mm exactly).
+    """
+    if not isinstance(text, str) or not text.strip():
+        raise InvalidEntry("Type a lead such as 1.5mm, 1.5 or 20tpi.")
+    s = text.strip()
+    if m := _TPI.match(s):
+        n = _exact_number(m["n"])
+        if n <= 0:
+            raise InvalidEntry(f"{text!r}: threads per inch must be greater than zero.")
+        return INCH_MM / n
+    try:
+        number, unit = split_unit(s)
+        value = _exact_number(number)
+    except InvalidEntry:
+        raise InvalidEntry(f"{text!r} is not a lead: type e.g. 1.5mm, 1.5 (mm), 0.05in "
+                           f"or 20tpi.") from None
+    if value <= 0:
+        raise InvalidEntry(f"{text!r}: the lead must be greater than zero.")
+    return value * INCH_MM if unit == "in" else value
+
+
+def parse_leadscrew(text: str) -> Leadscrew:
+    """Return the leadscrew typed as ``8tpi`` or ``3mm`` (a bare number is refused: say which)."""
+    if not isinstance(text, str) or not text.strip():
+        raise InvalidEntry("Type the leadscrew as threads per inch (8tpi) or pitch (3mm).")
+    s = text.strip()
+    if m := _TPI.match(s):
+        n = parse_number(m["n"])
+        return Leadscrew.from_tpi(n)
+    try:
+        number, unit = split_unit(s)
+        value = parse_number(number)
+    except InvalidEntry:
+        unit, value = None, None
+    if unit == "mm" and value is not None:
+        return Leadscrew.from_mm(value)
+    if unit == "in" and value is not None:
+        return Leadscrew(Fraction(value).limit_denominator(10**6) * INCH_MM, None) \
+            if value > 0 else Leadscrew.from_mm(value)
+    raise InvalidEntry(f"{text!r}: give the leadscrew as threads per inch (8tpi) or as a "
+                       f"pitch in mm (3mm).")
+
+
+_GEAR_ITEM = re.compile(r"^(?P<t>\d+)\s*(?:[x*]\s*(?P<n>\d+))?$", re.IGNORECASE)
+
+
+def parse_gear_list(text: str) -> tuple[tuple[int, int], ...]:
+    """Return (teeth, how many owned) from ``20,25,30x2,127`` (``x2`` or ``*2`` = two of them)."""
+    if not isinstance(text, str) or not text.strip():
+        raise InvalidEntry("List the gears you own, e.g. 20,25,30x2,40,127 (x2 = two of them).")
+    counts: dict[int, int] = {}
+    for raw in text.replace(";", ",").split(","):
+        item = raw.strip()
+        if not item:
+            continue
+        m = _GEAR_ITEM.match(item)
+        if not m:
+            raise InvalidEntry(f"{item!r} is not a gear: write the teeth, e.g. 40, or 40x2 "
+                               f"for two of them.")
+        teeth, n = int(m["t"]), int(m["n"] or 1)
+        if teeth < 1 or n < 1:
+            raise InvalidEntry(f"{item!r}: teeth and the number owned must be at least 1.")
+        counts[teeth] = counts.get(teeth, 0) + n
+    if not counts:
+        raise InvalidEntry("List the gears you own, e.g. 20,25,30x2,40,127.")
+    return tuple(sorted(counts.items()))
+
+
+def parse_ratio(text: str) -> Fraction:
+    """Return a ratio typed as ``1``, ``1/2``, ``0.5`` or ``2:1`` (driver:driven), exactly."""
+    s = text.strip() if isinstance(text, str) else ""
+    try:
+        if ":" in s:
+            a, b = s.split(":", 1)
+            r = _exact_number(a) / _exact_number(b)
+        else:
+            r = _exact_number(s)
+    except (InvalidEntry, ZeroDivisionError):
+        raise InvalidEntry(f"{text!r} is not a ratio: type e.g. 1, 1/2, 0.5 or 2:1.") from None
+    if r <= 0:
+        raise InvalidEntry(f"{text!r}: a ratio must be greater than zero.")
+    return r
+
+
+def parse_gearbox(text: str) -> tuple[GearboxPosition, ...]:
+    """Return gearbox positions from ``A=1/2,B=1,C=2`` (label=ratio) or ``1/2,1,2``."""
+    if not isinstance(text, str) or not text.strip():
+        raise InvalidEntry("List the gearbox positions, e.g. A=1/2,B=1,C=2.")
+    out = []
+    for i, raw in enumerate(p.strip() for p in text.split(",")):
+        if not raw:
+            continue
+        label, _, value = raw.rpartition("=")
+        out.append(GearboxPosition(label.strip() or str(i + 1), parse_ratio(value)))
+    if not out:
+        raise InvalidEntry("List the gearbox positions, e.g. A=1/2,B=1,C=2.")
+    return tuple(out)
+
+
+# --------------------------------------------------------------------------------------------
+# Results
+# --------------------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class GearTrain:
+    """One way to make a lead: the change gears (drivers, driven), box position and the error.
+
+    ``ratio`` is the change gears' own ratio, Π drivers / Π driven (1 for a box position alone).
+    ``error_pct`` is (lead made / lead wanted − 1) × 100. ``error_per_25mm`` [mm] and
+    ``error_per_inch`` [in] are how far the thread runs off over 25 mm / 1 in of its length.
+    """
+
+    drivers: tuple[int, ...]
+    driven: tuple[int, ...]
+    ratio: Fraction
+    lead_made_mm: float
+    error_pct: float
+    kind: TrainKind
+    lead_wanted_mm: float = 0.0
+    box: str | None = None
+    exact: bool = False
+    error_per_25mm: float = 0.0      # [mm]
+    error_per_inch: float = 0.0      # [in]
+
+    @property
+    def gear_count(self) -> int:
+        """Return how many change gears the train names (idler not counted)."""
+        return len(self.drivers) + len(self.driven)
+
+    def describe(self) -> str:
+        """Return one line (≤ 76 columns) saying which gears go where and how close it is."""
+        if self.kind == "simple":
+            gears = f"driver {self.drivers[0]} > idler > driven {self.driven[0]}"
+        elif self.kind == "compound":
+            a, c = self.drivers
+            b, d = self.driven
+            gears = f"{a}/{b} x {c}/{d} (A {a} drives B {b}; C {c} on B drives D {d})"
+        else:
+            gears = "box alone, no change gears"
+        if self.box is not None:
+            gears = f"box {self.box}: {gears}"
+        if self.exact:
+            how = "exact"
+        else:
+            how = f"{self.error_pct:+.4f}%"
+        return f"{gears}  {how}"
+
+
+# --------------------------------------------------------------------------------------------
+# The table of every train a gear set allows (numpy, cached)
+# --------------------------------------------------------------------------------------------
+
+class _TrainTable:
+    """Every simple and compound train of one gear set, sorted by ratio (numpy arrays).
+
+    Each train is packed into one int64 ``code``: bit 32 set for a compound train, then the
+    indices (into the sorted tooth list) of A, B, C, D, one byte each. Because the tooth list is
+    sorted, ordering codes orders trains by fewer gears, then by teeth A, B, C, D: the tie-break
+    inside one ratio.
+    """
+
+    def __init__(self, gears: tuple[tuple[int, int], ...], margin: int, compound: bool):
+        import numpy as np
+
+        self.teeth = teeth = np.array([t for t, _ in gears], dtype=np.int64)
+        owned = np.array([n for _, n in gears], dtype=np.int64)
+        m = len(teeth)
+        codes, ratios = [], []
+
+        # Simple trains: driver i, driven j; i == j needs two of that gear.
+        i, j = (g.ravel() for g in np.meshgrid(np.arange(m), np.arange(m), indexing="ij"))
+        ok = (i != j) | (owned[i] >= 2)
+        i, j = i[ok], j[ok]
+        codes.append((i << 24) | (j << 16))
+        ratios.append(teeth[i] / teeth[j])
+
+        if compound and m:
+            # Compound A/B x C/D over all m**4 index choices at once (bool/int16 arrays).
+            ia, jb, kc, ld = np.ix_(*(np.arange(m),) * 4)
+            t16 = teeth.astype(np.int16)
+            ta, tb, tc, td = t16[ia], t16[jb], t16[kc], t16[ld]
+            ok = (ta + tb >= tc + margin) & (tc + td >= tb + margin)
+            if (owned < 4).any():
+                # How many of each gear the train uses must not exceed how many are owned.
+                ab, ac, ad = ia == jb, ia == kc, ia == ld
+                bc, bd, cd = jb == kc, jb == ld, kc == ld
+                ok &= ((1 + ab + ac + ad <= owned[ia]) & (1 + ab + bc + bd <= owned[jb])
+                       & (1 + ac + bc + cd <= owned[kc]) & (1 + ad + bd + cd <= owned[ld]))
+            qa, qb, qc, qd = np.nonzero(ok)
+            codes.append((1 << 32) | (qa << 24) | (qb << 16) | (qc << 8) | qd)
+            # A*C and B*D are exact in float64; their quotient is correctly rounded, so equal
+            # rationals give equal floats and distinct ones (denominators < 2**26) differ.
+            ratios.append((teeth[qa] * teeth[qc]) / (teeth[qb] * teeth[qd]))
+
+        code = np.concatenate(codes)
+        ratio = np.concatenate(ratios)
+        order = np.argsort(ratio)
+        self.ratio = ratio[order]
+        self.code = code[order]
+        if len(self.ratio):
+            starts = np.flatnonzero(np.r_[True, self.ratio[1:] != self.ratio[:-1]])
+        else:
+            starts = np.zeros(0, np.int64)
+        self.group_start = starts
+        self.group_end = np.r_[starts[1:], len(self.ratio)].astype(np.int64)
+        self.unique_ratio = self.ratio[starts]
+
+    def __len__(self) -> int:
+        return len(self.ratio)
+
+    def decode(self, code: int) -> tuple[int, int, int, int]:
+        """Return the teeth (A, B, C, D) of a packed train; C = D = 0 for a simple train."""
+        t = self.teeth
+        a, b = int(t[(code >> 24) & 255]), int(t[(code >> 16) & 255])
+        if code >> 32:
+            return a, b, int(t[(code >> 8) & 255]), int(t[code & 255])
+        return a, b, 0, 0
+
+    def nearest(self, wanted: Fraction, groups: int, per_ratio: int):
+        """Yield teeth (A, B, C, D) of trains in the ``groups`` distinct ratios either side of
+        ``wanted``, at most ``per_ratio`` from each ratio (fewer gears, then teeth, first)."""
+        import numpy as np
+
+        u = self.unique_ratio
+        if not len(u):
+            return
+        pos = int(np.searchsorted(u, float(wanted)))
+        lo, hi = max(0, pos - groups - 1), min(len(u), pos + groups + 1)
+        for g in range(lo, hi):
+            s, e = int(self.group_start[g]), int(self.group_end[g])
+            block = self.code[s:e]
+            best = np.sort(block)[:per_ratio] if e - s > per_ratio else np.sort(block)
+            for code in best:
+                yield self.decode(int(code))
+
+
+def normalise_gears(gears: Iterable[tuple[int, int]] | Iterable[int]) -> tuple[tuple[int, int], ...]:
+    """Return the gear set as sorted (teeth, count) pairs, merging repeats.
+
+    Accepts (teeth, count) pairs or a plain list of teeth (each listed once per gear owned).
+    """
+    counts: dict[int, int] = {}
+    for item in gears:
+        if isinstance(item, tuple):
+            teeth, n = item
+        else:
+            teeth, n = item, 1
+        if isinstance(teeth, bool) or int(teeth) != teeth or int(n) != n:
+            raise InvalidEntry(f"Gear {item!r}: teeth and the number owned are whole numbers.")
+        teeth, n = int(teeth), int(n)
+        if teeth < 1 or n < 0:
+            raise InvalidEntry(f"Gear {item!r}: a gear has at least 1 tooth and cannot be "
+                               f"owned fewer than 0 times.")
+        if teeth > MAX_TEETH:
+            raise InvalidEntry(f"Gear {item!r}: more than {MAX_TEETH} teeth; check the list.")
+        if n:
+            counts[teeth] = counts.get(teeth, 0) + n
+    if len(counts) > MAX_DISTINCT_GEARS:
+        raise InvalidEntry(f"{len(counts)} different gears is more than shopterm searches "
+                           f"({MAX_DISTINCT_GEARS}); leave out the ones you never fit.")
+    return tuple(sorted(counts.items()))
+
+
+@lru_cache(maxsize=16)
+def train_table(gears: tuple[tuple[int, int], ...], margin: int = DEFAULT_MARGIN,
+                compound: bool = True) -> _TrainTable:
+    """Return the sorted table of every train of a gear set (cached per gear set and margin).
+
+    gears ((teeth, count) pairs, as from ``normalise_gears``); margin [teeth].
+    References: published-values.md §8 (clearance rule, common practice).
+    """
+    return _TrainTable(gears, int(margin), compound)
+
+
+# --------------------------------------------------------------------------------------------
+# The search
+# --------------------------------------------------------------------------------------------
+
+def rank_key(rel_error: Fraction, ngears: int, teeth: tuple[int, int, int, int], box_index: int):
+    """Return the sort key that ranks trains: |error|, then fewer gears, then teeth, then box."""
+    return (abs(rel_error), ngears, teeth, box_index)
+
+
+def find_trains(leadscrew: Leadscrew, lead: float | Fraction,
+                gears: Iterable[tuple[int, int]] | Iterable[int], *,
+                fixed_ratio: Fraction | int = 1,
+                gearbox: Sequence[GearboxPosition] = (),
+                margin: int = DEFAULT_MARGIN,
+                compound: bool = True,
+                limit: int = 8,
+                per_ratio: int = 1) -> tuple[GearTrain, ...]:
+    """Return the trains that make ``lead``, best first: smallest |error|, then fewer gears.
+
+    A gear is used only as many times as it is owned. A compound train A/B × C/D is kept only if
+    each pair's teeth exceed the third gear by at least ``margin``: A + B ≥ C + margin and
+    C + D ≥ B + margin (C must clear A's stud, B must clear D's shaft). Trains of the same ratio
+    are ranked by fewer gears, then by teeth (A, B, C, D); at most ``per_ratio`` of each ratio
+    are returned, ``limit`` in all. With ``gearbox`` positions, each position is tried with no
+    change gears and with every train.
+
+    leadscrew (pitch exact); lead [mm] (multi-start: the lead, not the pitch);
+    gears ((teeth, count) pairs); fixed_ratio (stud/tumbler, turns of the first driver per
+    spindle turn); margin [teeth].
+    References: published-values.md §8 (work pitch = leadscrew pitch × Π drivers / Π driven;
+    Rose, *Modern Machine Shop Practice*).
+    """
+    wanted = as_exact_lead(lead)
+    fixed = Fraction(fixed_ratio)
+    if fixed <= 0:
+        raise InvalidEntry("The fixed ratio in the drive must be greater than zero.")
+    if limit < 1 or per_ratio < 1:
+        raise InvalidEntry("Ask for at least one train.")
+    if margin < 0:
+        raise InvalidEntry("The clearance margin cannot be negative; 15 teeth is usual.")
+    gearset = normalise_gears(gears)
+    if not gearset and not gearbox:
+        raise InvalidEntry("No gears to search: list the change gears you own, "
+                           "e.g. 20,25,30,...,127, or the gearbox positions.")
+    table = train_table(gearset, int(margin), bool(compound)) if gearset else None
+    boxes: list[tuple[int, GearboxPosition | None]] = (
+        list(enumerate(gearbox)) if gearbox else [(0, None)])
+
+    candidates = []
+    for bi, pos in boxes:
+        box_ratio = pos.ratio if pos is not None else Fraction(1)
+        base = leadscrew.pitch_exact * fixed * box_ratio          # lead with a 1:1 train [mm]
+        need = wanted / base                                      # train ratio wanted
+        if pos is not None:
+            rel = base / wanted - 1
+            candidates.append((rank_key(rel, 0, (0, 0, 0, 0), bi), (), (), Fraction(1), pos))
+        if table is None:
+            continue
+        for a, b, c, d in table.nearest(need, limit, per_ratio):
+            r = Fraction(a * c, b * d) if c else Fraction(a, b)
+            rel = base * r / wanted - 1
+            if c:
+                drivers, driven, ng = (a, c), (b, d), 4
+            else:
+                drivers, driven, ng = (a,), (b,), 2
+            candidates.append((rank_key(rel, ng, (a, b, c, d), bi), drivers, driven, r, pos))
+
+    candidates.sort(key=lambda t: t[0])
+    seen: dict[tuple, int] = {}
+    out: list[GearTrain] = []
+    for key, drivers, driven, r, pos in candidates:
+        box_ratio = pos.ratio if pos is not None else Fraction(1)
+        ident = (r * box_ratio, )
+        if seen.get(ident, 0) >= per_ratio:
+            continue
+        seen[ident] = seen.get(ident, 0) + 1
+        out.append(_make_train(leadscrew, wanted, fixed, drivers, driven, r, pos))
+        if len(out) >= limit:
+            break
+    return tuple(out)
+
+
+def _make_train(leadscrew: Leadscrew, wanted: Fraction, fixed: Fraction, drivers, driven,
+                r: Fraction, pos: GearboxPosition | None) -> GearTrain:
+    box_ratio = pos.ratio if pos is not None else Fraction(1)
+    made = leadscrew.pitch_exact * fixed * box_ratio * r
+    rel = made / wanted - 1
+    kind: TrainKind = "box" if not drivers else ("simple" if len(drivers) == 1 else "compound")
+    return GearTrain(
+        drivers=tuple(drivers), driven=tuple(driven), ratio=r,
+        lead_made_mm=float(made), error_pct=float(rel * 100), kind=kind,
+        lead_wanted_mm=float(wanted), box=pos.label if pos is not None else None,
+        exact=rel == 0, error_per_25mm=float(rel * 25),
+        error_per_inch=float(rel))
+
+
+def trains_for_lathe(lathe: Lathe, lead: float | Fraction, *, limit: int = 8,
+                     per_ratio: int = 1) -> tuple[GearTrain, ...]:
+    """Return ``find_trains`` for this lathe's leadscrew, gears, fixed ratio, box and margin.
+
+    lead [mm].
+    References: published-values.md §8.
+    """
+    return find_trains(lathe.leadscrew, lead, lathe.gears, fixed_ratio=lathe.fixed_ratio,
+                       gearbox=lathe.gearbox, margin=lathe.clearance_margin, limit=limit,
+                       per_ratio=per_ratio)
+
+
+def lead_made(leadscrew: Leadscrew, drivers: Sequence[int], driven: Sequence[int], *,
+              fixed_ratio: Fraction | int = 1, box_ratio: Fraction | int = 1) -> Fraction:
+    """Return the lead a train makes, exactly [mm] (the inverse of the search).
+
+    leadscrew (pitch exact); drivers, driven [teeth].
+    References: published-values.md §8 (work pitch = leadscrew pitch × Π drivers / Π driven).
+    """
+    if len(drivers) != len(driven):
+        raise InvalidEntry("A train has as many driven gears as drivers.")
+    if any(int(t) != t or t < 1 for t in (*drivers, *driven)):
+        raise InvalidEntry("Every gear needs a whole number of teeth, at least 1.")
+    r = Fraction(1)
+    for t in drivers:
+        r *= int(t)
+    for t in driven:
+        r /= int(t)
+    return leadscrew.pitch_exact * Fraction(fixed_ratio) * Fraction(box_ratio) * r
+
+
+def tpi_of(lead_mm: float) -> float:
+    """Return threads per inch of a lead [mm] (25.4 / lead)."""
+    return MM_PER_INCH / lead_mm
