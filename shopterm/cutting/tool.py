@@ -1,0 +1,514 @@
+"""The tool tip against the thread: how deep it must go, and whether its form suits the thread.
+
+Geometry (single-point tool ground to the thread's included angle 2a, axial section, lead angle
+neglected): at the aim pitch diameter the groove is P/2 wide, so a sharp V tool has its apex
+(P/4)·cot a beyond the pitch line. A flat f at the tip holds it back by (f/2)·cot a; a nose
+radius r tangent to both flanks holds it back by r·(1/sin a − 1). The total radial infeed is
+measured from the diameter actually turned: the blank's OD (external) or the bore's ID
+(internal, feeding outward).
+
+The form check compares the two thread surfaces over one pitch — the one this tool cuts and the
+mating thread at its maximum-material size — and reports any place where they overlap, with a
+point list for each surface so a screen can draw them.
+
+References: ISO 68-1 (basic profile, H = 0.866025P, h3 = 17/24 H, root radius H/6);
+ISO 965-1 (external root radius ≥ 0.125P); ASME B1.1 (UN/UNR roots); BS 84 (Whitworth rounded
+form, r = 0.137329P); BS 93 (BA, r = 0.180835P).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from shopterm.errors import InvalidEntry
+from shopterm.lathe.machine import ToolTip
+from shopterm.standards.spec import Limits
+
+#: Below this the core treats two surfaces as touching, not overlapping [mm].
+TOUCH = 1e-6
+
+#: Where a standard gives one root radius (BS 84, BS 93), a ground tip within this fraction of
+#: it is accepted. Our own tolerance, no source: a toolroom-ground radius is rarely closer.
+SINGLE_RADIUS_TOLERANCE = 0.10
+
+
+def _half_angle(form_angle_deg: float) -> float:
+    if not (0 < form_angle_deg < 180):
+        raise InvalidEntry(f"A thread form angle of {form_angle_deg:g}° cannot be cut: use the "
+                           "included angle, e.g. 60 or 55.")
+    return math.radians(form_angle_deg / 2)
+
+
+def sharp_apex_beyond_pitch_line(pitch: float, form_angle_deg: float) -> float:
+    """Return how far a sharp V tool's apex lies beyond the pitch line [mm].
+
+    pitch [mm]; form_angle_deg: included angle [deg].
+    References: ISO 68-1 basic profile (groove P/2 wide at the pitch line).
+    """
+    return pitch / 4 / math.tan(_half_angle(form_angle_deg))
+
+
+def tip_setback(tip: ToolTip, form_angle_deg: float) -> float:
+    """Return how far the tip's flat or radius holds it back from the sharp V apex [mm].
+
+    tip: flat width or nose radius [mm]; form_angle_deg: included angle [deg].
+    References: plane geometry of a V with half-angle a: flat f → (f/2)·cot a;
+    radius r tangent to both flanks → r·(1/sin a − 1).
+    """
+    a = _half_angle(form_angle_deg)
+    if tip.kind == "flat":
+        return tip.size / 2 / math.tan(a)
+    return tip.size * (1 / math.sin(a) - 1)
+
+
+def tip_beyond_pitch_line(tip: ToolTip, pitch: float, form_angle_deg: float) -> float:
+    """Return how far the tool's tip must lie beyond the pitch line [mm] (toward the root).
+
+    tip [mm]; pitch [mm]; form_angle_deg [deg]. Raises InvalidEntry when the tip is so wide that
+    it could not reach the pitch line.
+    References: ISO 68-1 basic profile; see ``tip_setback``.
+    """
+    if pitch <= 0:
+        raise InvalidEntry("The pitch must be greater than zero.")
+    depth = sharp_apex_beyond_pitch_line(pitch, form_angle_deg) - tip_setback(tip, form_angle_deg)
+    if depth <= 0:
+        what = "flat" if tip.kind == "flat" else "radius"
+        raise InvalidEntry(f"A tip {what} of {tip.size:.3f} mm is too big for a {pitch:g} mm "
+                           f"pitch: it cannot reach the pitch line. Grind it smaller (under "
+                           f"{largest_tip(tip.kind, pitch, form_angle_deg):.3f} mm).")
+    return depth
+
+
+def largest_tip(kind: str, pitch: float, form_angle_deg: float) -> float:
+    """Return the flat or radius [mm] whose tip would just reach the pitch line.
+
+    kind: 'flat' or 'radius'; pitch [mm]; form_angle_deg [deg].
+    References: inverse of ``tip_setback``.
+    """
+    a = _half_angle(form_angle_deg)
+    apex = sharp_apex_beyond_pitch_line(pitch, form_angle_deg)
+    return 2 * apex * math.tan(a) if kind == "flat" else apex / (1 / math.sin(a) - 1)
+
+
+@dataclass(frozen=True)
+class ToolDepth:
+    """Where the tool must go: total radial infeed from the turned surface to the aim PD."""
+
+    total_radial: float          # [mm] from the turned diameter to the tip, on radius
+    turned_diameter: float       # [mm] blank OD (external) or bore ID (internal), as measured
+    aim_pd: float                # [mm]
+    tip_beyond_pitch_line: float  # [mm]
+    root_diameter: float         # [mm] diameter the tip leaves at the aim PD
+    basic_depth: float           # [mm] the standard's basic depth (Limits.depth), to compare
+    internal: bool
+    notes: tuple[str, ...] = ()
+
+    @property
+    def difference_from_basic(self) -> float:
+        """Return total_radial − basic_depth [mm] (what the turned size and tip add or take)."""
+        return self.total_radial - self.basic_depth
+
+
+def tool_depth(limits: Limits, turned_diameter: float, tip: ToolTip,
+               aim_pd: float | None = None) -> ToolDepth:
+    """Return the total radial infeed that puts the pitch diameter at ``aim_pd``.
+
+    limits: the thread's limits (pitch, form, kind, band, basic depth); turned_diameter [mm]:
+    blank OD for an external thread, bore ID for an internal one, as measured; tip [mm];
+    aim_pd [mm], default the middle of the band.
+    External: (OD − PD)/2 + t; internal (feeds outward): (PD − ID)/2 + t, t = tip beyond the
+    pitch line.
+    References: ISO 68-1 basic profile; see ``tip_beyond_pitch_line``.
+    """
+    spec = limits.spec
+    internal = not spec.is_external
+    aim = limits.pd_mid if aim_pd is None else float(aim_pd)
+    if not (turned_diameter > 0 and math.isfinite(turned_diameter)):
+        raise InvalidEntry("Enter the measured diameter of the turned surface (greater than 0).")
+    what = "bore" if internal else "blank"
+    if internal and turned_diameter >= aim:
+        raise InvalidEntry(f"The bore ({turned_diameter:.3f} mm) is not smaller than the pitch "
+                           f"diameter aimed at ({aim:.3f} mm): check the entry or the thread.")
+    if not internal and turned_diameter <= aim:
+        raise InvalidEntry(f"The blank ({turned_diameter:.3f} mm) is not larger than the pitch "
+                           f"diameter aimed at ({aim:.3f} mm): check the entry or the thread.")
+    t = tip_beyond_pitch_line(tip, spec.pitch, spec.form.angle_deg)
+    if internal:
+        total = (aim - turned_diameter) / 2 + t
+        root = aim + 2 * t
+    else:
+        total = (turned_diameter - aim) / 2 + t
+        root = aim - 2 * t
+    notes: list[str] = []
+    if internal:
+        lo, hi = limits.minor_min, limits.minor_max
+        if lo is not None and turned_diameter < lo - TOUCH:
+            notes.append(f"The bore {turned_diameter:.3f} mm is under the minor min {lo:.3f} mm: "
+                         "bore it out first or the nut's crests will be too high.")
+        if hi is not None and turned_diameter > hi + TOUCH:
+            notes.append(f"The bore {turned_diameter:.3f} mm is over the minor max {hi:.3f} mm: "
+                         "the thread will be shallow at the crest.")
+    else:
+        lo, hi = limits.major_min, limits.major_max
+        if hi is not None and turned_diameter > hi + TOUCH:
+            notes.append(f"The blank {turned_diameter:.3f} mm is over the major max {hi:.3f} mm: "
+                         "turn it down first.")
+        if lo is not None and turned_diameter < lo - TOUCH:
+            notes.append(f"The blank {turned_diameter:.3f} mm is under the major min {lo:.3f} mm: "
+                         "the crests will be too narrow.")
+    return ToolDepth(total, float(turned_diameter), aim, t, root, limits.depth, internal,
+                     tuple(notes))
+
+
+# ---------------------------------------------------------------------------------------------
+# Thread surfaces over one pitch
+
+
+@dataclass(frozen=True)
+class Surface:
+    """One thread surface in an axial section, x from the middle of the external tooth [mm].
+
+    The external thread's material lies below ``y`` (toward the axis), the internal thread's
+    above. ``outer_*`` shape the end nearest the major diameter (x = 0), ``inner_*`` the end
+    nearest the minor diameter (x = ±P/2): a clip is a flat at that radius, a radius is an arc
+    tangent to both flanks. All values in mm.
+    """
+
+    pitch: float
+    half_angle: float            # [rad]
+    pitch_radius: float
+    outer_clip: float | None = None
+    outer_radius: float = 0.0
+    inner_clip: float | None = None
+    inner_radius: float = 0.0
+
+    def y(self, x: float) -> float:
+        """Return the surface's radius [mm] at axial position x [mm]."""
+        p, a = self.pitch, self.half_angle
+        u = abs(math.remainder(x, p))            # 0 … P/2
+        cot = 1 / math.tan(a)
+        y = self.pitch_radius + (p / 4 - u) * cot
+        if self.outer_radius > 0:
+            top = self.pitch_radius + p / 4 * cot
+            if u <= self.outer_radius * math.cos(a):
+                yc = top - self.outer_radius / math.sin(a)
+                y = min(y, yc + math.sqrt(max(self.outer_radius ** 2 - u * u, 0.0)))
+        if self.outer_clip is not None:
+            y = min(y, self.outer_clip)
+        v = p / 2 - u
+        if self.inner_radius > 0:
+            bottom = self.pitch_radius - p / 4 * cot
+            if v <= self.inner_radius * math.cos(a):
+                yc = bottom + self.inner_radius / math.sin(a)
+                y = max(y, yc - math.sqrt(max(self.inner_radius ** 2 - v * v, 0.0)))
+        if self.inner_clip is not None:
+            y = max(y, self.inner_clip)
+        return y
+
+    def breakpoints(self) -> list[float]:
+        """Return the x values in [0, P/2] where the surface changes from one piece to the next."""
+        p, a = self.pitch, self.half_angle
+        pts = [0.0, p / 2, p / 4]
+        if self.outer_radius > 0:
+            pts.append(self.outer_radius * math.cos(a))
+        if self.inner_radius > 0:
+            pts.append(p / 2 - self.inner_radius * math.cos(a))
+        for clip in (self.outer_clip, self.inner_clip):
+            if clip is not None:
+                pts.append(p / 4 - (clip - self.pitch_radius) * math.tan(a))
+        return sorted(min(max(x, 0.0), p / 2) for x in pts)
+
+
+def _tool_end(tip: ToolTip, pitch: float, a: float, pitch_radius: float,
+              outward: bool) -> tuple[float | None, float]:
+    """Return (clip, radius) for the end of a surface that this tip cuts."""
+    if tip.kind == "radius":
+        return None, tip.size
+    t = (pitch / 4 - tip.size / 2) / math.tan(a)
+    return (pitch_radius + t if outward else pitch_radius - t), 0.0
+
+
+def _nominal_root_radius(limits: Limits) -> float:
+    """Return a root radius for drawing the mating external thread [mm]."""
+    form, p = limits.spec.form, limits.spec.pitch
+    if form.root_radius > 0:
+        return form.root_radius * p
+    return form.height / 6 * p   # ISO 68-1 nominal external root radius H/6
+
+
+def external_surface(limits: Limits, pd: float, crest_diameter: float,
+                     tip: ToolTip | None = None) -> Surface:
+    """Return the external thread's surface at pitch diameter ``pd`` [mm].
+
+    crest_diameter [mm]: the turned OD (crest flat); tip: the tool that cut the root (None: the
+    standard's nominal root). Crest rounded where the form is (BS 84, BS 93).
+    References: ISO 68-1; BS 84; BS 93.
+    """
+    spec = limits.spec
+    a, p = spec.form.half_angle_rad, spec.pitch
+    tip = tip or ToolTip("radius", _nominal_root_radius(limits))
+    clip, radius = _tool_end(tip, p, a, pd / 2, outward=False)
+    return Surface(p, a, pd / 2, outer_clip=crest_diameter / 2,
+                   outer_radius=spec.form.crest_radius * p, inner_clip=clip, inner_radius=radius)
+
+
+def internal_surface(limits: Limits, pd: float, crest_diameter: float,
+                     tip: ToolTip | None = None) -> Surface:
+    """Return the internal thread's surface at pitch diameter ``pd`` [mm].
+
+    crest_diameter [mm]: the bore (the nut's crest, its minor diameter); tip: the tool that cut
+    the root (None: the basic root, a flat at the basic major or the form's rounding).
+    References: ISO 68-1; BS 84; BS 93.
+    """
+    spec = limits.spec
+    form, a, p = spec.form, spec.form.half_angle_rad, spec.pitch
+    if tip is None:
+        clip, radius = limits.basic_major / 2, form.crest_radius * p
+    else:
+        clip, radius = _tool_end(tip, p, a, pd / 2, outward=True)
+    return Surface(p, a, pd / 2, outer_clip=clip, outer_radius=radius,
+                   inner_clip=crest_diameter / 2, inner_radius=form.root_radius * p)
+
+
+def overlap(external: Surface, internal: Surface, samples: int = 400) -> tuple[float, float]:
+    """Return (largest overlap, x where it is) [mm]: how far the external surface stands above
+    the internal one at worst (≤ 0 means clear by that much).
+
+    Sampled on a uniform grid over half a pitch plus both surfaces' breakpoints, where the
+    worst case of lines, flats and arcs lies.
+    References: plane geometry.
+    """
+    p = external.pitch
+    xs = set(external.breakpoints()) | set(internal.breakpoints())
+    xs |= {p / 2 * i / samples for i in range(samples + 1)}
+    best, where = -math.inf, 0.0
+    for x in sorted(xs):
+        d = external.y(x) - internal.y(x)
+        if d > best:
+            best, where = d, x
+    return best, where
+
+
+# ---------------------------------------------------------------------------------------------
+# The picture
+
+
+BOLT, NUT, BOTH, GAP, PITCH_LINE = "▒", "░", "█", " ", "·"
+
+
+@dataclass(frozen=True)
+class ProfilePicture:
+    """Both thread surfaces over one pitch, for a screen to draw (x along the axis, y radial, mm).
+
+    ``interference`` holds (x, y_low, y_high) where the external thread's material stands above
+    the internal thread's surface.
+    """
+
+    pitch: float
+    external: tuple[tuple[float, float], ...]
+    internal: tuple[tuple[float, float], ...]
+    interference: tuple[tuple[float, float, float], ...]
+    cut: str                      # which of the two this tool cuts: 'external' or 'internal'
+    pitch_radius: float           # [mm] the aim pitch line
+
+    def render_profiles(self, width: int, height: int) -> list[str]:
+        """Return ``height`` text lines of ``width`` characters: ▒ external, ░ internal,
+        █ where they overlap, · the pitch line, space the gap between them."""
+        if width < 4 or height < 3:
+            raise InvalidEntry("The profile picture needs at least 4 columns and 3 lines.")
+        ys = [y for _, y in self.external] + [y for _, y in self.internal]
+        lo, hi = min(ys), max(ys)
+        span = (hi - lo) or 1.0
+        lo, hi = lo - span * 0.05, hi + span * 0.05
+        ext = [_interp(self.external, -self.pitch / 2 + self.pitch * (c + 0.5) / width)
+               for c in range(width)]
+        nut = [_interp(self.internal, -self.pitch / 2 + self.pitch * (c + 0.5) / width)
+               for c in range(width)]
+        pitch_row = round((hi - self.pitch_radius) / (hi - lo) * (height - 1))
+        lines = []
+        for r in range(height):
+            top = hi - (hi - lo) * r / height
+            bottom = hi - (hi - lo) * (r + 1) / height
+            mid = (top + bottom) / 2
+            row = []
+            for c in range(width):
+                in_bolt = mid <= ext[c]
+                in_nut = mid >= nut[c]
+                if in_bolt and in_nut:
+                    row.append(BOTH)
+                elif ext[c] > nut[c] + TOUCH and bottom <= ext[c] and top >= nut[c]:
+                    row.append(BOTH)      # a thin overlap inside one cell
+                elif in_bolt:
+                    row.append(BOLT)
+                elif in_nut:
+                    row.append(NUT)
+                else:
+                    row.append(PITCH_LINE if r == pitch_row else GAP)
+            lines.append("".join(row))
+        return lines
+
+
+def _interp(points: tuple[tuple[float, float], ...], x: float) -> float:
+    for (x0, y0), (x1, y1) in zip(points, points[1:]):
+        if x0 <= x <= x1:
+            return y0 if x1 == x0 else y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+    return points[0][1] if x < points[0][0] else points[-1][1]
+
+
+def _picture(ext: Surface, nut: Surface, cut: str, pitch_radius: float,
+             samples: int = 120) -> ProfilePicture:
+    p = ext.pitch
+    half = set(ext.breakpoints()) | set(nut.breakpoints()) | {p / 2 * i / samples
+                                                             for i in range(samples + 1)}
+    xs = sorted({-x for x in half} | half)
+    e = tuple((x, ext.y(x)) for x in xs)
+    n = tuple((x, nut.y(x)) for x in xs)
+    bad = tuple((x, yn, ye) for (x, ye), (_, yn) in zip(e, n) if ye > yn + TOUCH)
+    return ProfilePicture(p, e, n, bad, cut, pitch_radius)
+
+
+# ---------------------------------------------------------------------------------------------
+# The form check
+
+
+@dataclass(frozen=True)
+class ToolCheck:
+    """Whether the tip's form suits the thread, and the picture of the two profiles."""
+
+    ok: bool
+    messages: tuple[str, ...]
+    interference: float           # [mm] radial overlap with the mating thread, 0.0 when clear
+    clearance: float              # [mm] least radial gap to the mating thread (negative: overlap)
+    root_radius_min: float | None  # [mm] the rule applied, if any
+    root_radius_max: float | None
+    largest_clear_radius: float | None  # [mm] biggest nose radius that would clear, when fouling
+    picture: ProfilePicture
+
+
+def _root_rule(limits: Limits) -> tuple[float | None, float | None]:
+    if not limits.spec.is_external:
+        return None, None
+    return limits.root_radius_min, limits.root_radius_max
+
+
+def check_tool(limits: Limits, tip: ToolTip, aim_pd: float | None = None,
+               turned_diameter: float | None = None, mating: Limits | None = None) -> ToolCheck:
+    """Return the form check of ``tip`` for this thread at ``aim_pd``.
+
+    limits: the thread to cut; tip [mm]; aim_pd [mm] (default mid band); turned_diameter [mm]
+    (blank OD or bore ID; default the major max / minor min); mating: the mating thread's limits
+    (default its basic size — the maximum-material size with no allowance, the worst any class
+    allows). External: root radius rules (Limits.root_radius_min/max), the root below the minor
+    max, and clear of the nut's crest at its minimum minor and PD. Internal: the root the tip cuts
+    clear of the screw's crest at its major max and PD max.
+    References: ISO 965-1 (root ≥ 0.125P); ASME B1.1 (UNR 0.108P–0.144P; UN root below minor
+    max); BS 84 (r = 0.137329P); BS 93 (r = 0.180835P); ISO 68-1 basic profile.
+    """
+    spec = limits.spec
+    p = spec.pitch
+    aim = limits.pd_mid if aim_pd is None else float(aim_pd)
+    t = tip_beyond_pitch_line(tip, p, spec.form.angle_deg)
+    fails: list[str] = []
+    warns: list[str] = []
+    goods: list[str] = []
+    rmin, rmax = _root_rule(limits)
+    internal = not spec.is_external
+    if not internal:
+        if rmin is not None or rmax is not None:
+            single = rmin is not None and rmax is not None and abs(rmax - rmin) < TOUCH
+            lo = rmin * (1 - SINGLE_RADIUS_TOLERANCE) if single else rmin
+            hi = rmax * (1 + SINGLE_RADIUS_TOLERANCE) if single else rmax
+            want = (f"{rmin:.3f} mm" if single else
+                    f"{rmin:.3f} to {rmax:.3f} mm" if rmin is not None and rmax is not None else
+                    f"at least {rmin:.3f} mm" if rmin is not None else f"at most {rmax:.3f} mm")
+            if tip.kind == "flat":
+                fails.append(f"This thread needs a rounded root (radius {want}); a flat tip leaves "
+                             "sharp corners. Grind a nose radius.")
+            elif lo is not None and tip.size < lo - TOUCH:
+                fails.append(f"Tip radius {tip.size:.3f} mm is under the root radius rule "
+                             f"({want}). Grind a larger radius.")
+            elif hi is not None and tip.size > hi + TOUCH:
+                fails.append(f"Tip radius {tip.size:.3f} mm is over the root radius rule "
+                             f"({want}). Grind a smaller radius.")
+            else:
+                goods.append(f"Tip radius {tip.size:.3f} mm meets the root radius rule ({want}).")
+        elif spec.family == "unified" and tip.kind == "flat" and tip.size < p / 8 - TOUCH:
+            # from memory: ASME B1.1 UN design form has a root flat of P/8.
+            warns.append(f"Tip flat {tip.size:.3f} mm is narrower than P/8 = {p / 8:.3f} mm "
+                         "(the UN design root flat, from memory): a sharper root is weaker.")
+        root = aim - 2 * t
+        if limits.minor_max is not None and root > limits.minor_max + TOUCH:
+            fails.append(f"The root would be at {root:.3f} mm, above the minor max "
+                         f"{limits.minor_max:.3f} mm: use a smaller tip.")
+        crest = turned_diameter if turned_diameter is not None else (
+            limits.major_max if limits.major_max is not None else limits.basic_major)
+        ext = external_surface(limits, aim, crest, tip)
+        if mating is not None:
+            nut_pd = mating.pd_min
+            nut_minor = mating.minor_min if mating.minor_min is not None else mating.basic_minor
+        else:
+            nut_pd, nut_minor = limits.basic_pd, _internal_basic_minor(limits)
+        nut = internal_surface(limits, nut_pd, nut_minor, None)
+        mate_text = f"the nut at its minimum minor {nut_minor:.3f} mm and PD {nut_pd:.3f} mm"
+    else:
+        crest = turned_diameter if turned_diameter is not None else (
+            limits.minor_min if limits.minor_min is not None else limits.basic_minor)
+        nut = internal_surface(limits, aim, crest, tip)
+        if mating is not None:
+            bolt_pd = mating.pd_max
+            bolt_major = mating.major_max if mating.major_max is not None else mating.basic_major
+        else:
+            bolt_pd, bolt_major = limits.basic_pd, limits.basic_major
+        ext = external_surface(limits, bolt_pd, bolt_major, None)
+        mate_text = (f"the screw's crest at its major max {bolt_major:.3f} mm and PD "
+                     f"{bolt_pd:.3f} mm")
+    worst, _ = overlap(ext, nut)
+    interference = max(worst, 0.0) if worst > TOUCH else 0.0
+    largest = None
+    if interference > 0:
+        largest = _largest_clear_radius(limits, aim, ext, nut, internal)
+        fix = (f" Regrind to a radius of at most {largest:.3f} mm." if largest is not None
+               else " Regrind the tip.")
+        where = "root the tip cuts in the nut" if internal else "root the tip leaves"
+        fails.append(f"The {where} fouls {mate_text} by {interference:.3f} mm (on radius) "
+                     f"before the thread is cut.{fix}")
+    else:
+        goods.append(f"The root clears {mate_text} by {-worst:.3f} mm.")
+    picture = _picture(ext, nut, "internal" if internal else "external", aim / 2)
+    messages = tuple(["Fails: " + m for m in fails] + ["Warning: " + m for m in warns]
+                     + ["OK: " + m for m in goods])
+    return ToolCheck(not fails, messages, interference, -worst, rmin, rmax, largest, picture)
+
+
+def _internal_basic_minor(limits: Limits) -> float:
+    """Return the basic minor diameter of the mating nut (D1 = d − 2·depth of the basic form)."""
+    return limits.basic_major - limits.spec.form.minor_offset * limits.spec.pitch
+
+
+def _largest_clear_radius(limits: Limits, aim: float, ext: Surface, nut: Surface,
+                          internal: bool) -> float | None:
+    """Return the largest nose radius [mm] that would clear the mating surface, by bisection."""
+    p, form = limits.spec.pitch, limits.spec.form
+    hi = largest_tip("radius", p, form.angle_deg) * 0.999
+    lo = 0.0
+
+    def clears(r: float) -> bool:
+        tip = ToolTip("radius", r)
+        if internal:
+            cut = Surface(p, nut.half_angle, nut.pitch_radius, None, r, nut.inner_clip,
+                          nut.inner_radius)
+            return overlap(ext, cut, 100)[0] <= TOUCH
+        cut = Surface(p, ext.half_angle, ext.pitch_radius, ext.outer_clip, ext.outer_radius,
+                      None, tip.size)
+        return overlap(cut, nut, 100)[0] <= TOUCH
+
+    if not clears(lo):
+        return None
+    for _ in range(40):
+        mid = (lo + hi) / 2
+        if clears(mid):
+            lo = mid
+        else:
+            hi = mid
+    return lo
