@@ -46,12 +46,13 @@ INTERNAL_POSITIONS = ("G", "H")
 #: The class used when a designation gives none: ISO 965-1's medium class for general use.
 DEFAULT_CLASS: dict[str, str] = {"external": "6g", "internal": "6H"}  # from memory (ISO 965-1 clause 10)
 
-#: ISO 965-1 recommended tolerance classes, in the order the thread list offers them: the
-#: medium classes first, then fine, then coarse (each list filtered by the table cells).
-_PREFERRED: dict[str, tuple[str, ...]] = {  # from memory (ISO 965-1 Tables 11 and 12)
-    "external": ("6g", "6h", "6e", "6f", "4h", "8g", "8e", "4g", "5g6g", "5h6h", "7e6e",
-                 "7g6g", "7h6h", "3h4h", "5g4g", "5h4h", "9e8e", "9g8g"),
-    "internal": ("6H", "6G", "5H", "7H", "4H", "7G", "5G", "8H", "8G"),
+#: ISO 965-1 recommended tolerance classes, in the order the thread list offers them: single
+#: classes, then combined ones (pitch-diameter grade, crest grade), then the rarer ones. Each
+#: list is filtered by the table cells for the size. The usual choice is DEFAULT_CLASS.
+_PREFERRED: dict[str, tuple[str, ...]] = {  # from memory (ISO 965-1 recommended classes)
+    "external": ("4h", "6e", "6f", "6g", "6h", "8g", "8e", "5g6g", "5h6h", "7e6e", "7g6g",
+                 "7h6h", "3h4h", "4g", "5g4g", "5h4h", "9e8e", "9g8g"),
+    "internal": ("4H", "5H", "6G", "6H", "7G", "7H", "5H6H", "5G", "8G", "8H"),
 }
 
 # ISO 68-1 basic profile, multiples of the pitch (as printed, six decimals).
@@ -309,18 +310,27 @@ def _engagement_rows() -> tuple[dict[str, str], ...]:
 
 
 def sizes() -> tuple[float, ...]:
-    """Return the ISO 261 nominal diameters [mm], M1 to M68."""
+    """Return the ISO 261 nominal diameters [mm], M1 to M68.
+
+    References: ISO 261 (general plan).
+    """
     return tuple(s.d for s in _series())
 
 
 def pitches(d: float) -> tuple[float, ...]:
-    """Return the ISO 261 pitches [mm] of diameter ``d`` [mm], coarse first; () if not a size."""
+    """Return the ISO 261 pitches [mm] of diameter ``d`` [mm], coarse first; () if not a size.
+
+    References: ISO 261 (general plan).
+    """
     s = _size(d)
     return s.pitches if s else ()
 
 
 def coarse_pitch(d: float) -> float | None:
-    """Return the ISO 261 coarse pitch [mm] of diameter ``d`` [mm], or None if it has none."""
+    """Return the ISO 261 coarse pitch [mm] of diameter ``d`` [mm], or None if it has none.
+
+    References: ISO 261 (general plan).
+    """
     s = _size(d)
     return s.coarse if s else None
 
@@ -440,10 +450,10 @@ def _refuse(d: float, pitch: float, c: _Class, err: UnknownThread, head: str) ->
     """Raise UnsupportedClass for a class the tables lack, naming the classes they do give."""
     given = _classes_for(d, pitch, c.kind)
 
-    def distance(t: str) -> int:
+    def distance(t: str) -> tuple[int, bool]:
         o = _read_class(t)
         return ((o.position != c.position) + abs(o.pitch_grade - c.pitch_grade)
-                + abs(o.crest_grade - c.crest_grade))
+                + abs(o.crest_grade - c.crest_grade), t != DEFAULT_CLASS[c.kind])
 
     near = sorted(given, key=distance)[:3]
     raise UnsupportedClass(
