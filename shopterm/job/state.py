@@ -258,12 +258,8 @@ def apply(state: JobState, event: Event) -> JobState:
     if kind == "screen":
         return replace(s, last_screen=p["name"], last_screen_context=p.get("context", {}))
     if kind == "job_finished":
-        if state.finished:
-            raise InvalidEntry("This job is already finished.")
         return replace(s, finished_seq=seq)
     if kind == "job_archived":
-        if state.archived:
-            raise InvalidEntry("This job is already archived.")
         return replace(s, archived_seq=seq)
     if kind == "undo":
         return _undo(state, s, p["target"])
