@@ -1,0 +1,607 @@
+"""Measuring a thread over three wires: pitch diameter from the reading and back, wire sizes,
+and what a set of readings says.
+
+Three ways to relate the measurement over wires ``M`` to the pitch diameter ``E`` of a
+symmetric thread of half-angle ``a``, pitch ``P``, wire diameter ``W``:
+
+``simple``
+    M = E + W(1 + cosec a) − (P/2)·cot a — the lead angle neglected (wire in an axial groove).
+``h28``
+    the lead-angle correction of NBS Handbook H28 / ASME B1.2:
+    E = M + (P/2)·cot a − W·[1 + cosec a + ½·tan²λ·cos a·cot a], tan λ = L / (π E).
+    Published as good for lead angles up to about 5°.
+``exact``
+    the wire is a straight cylinder of radius r = W/2 whose axis lies in a plane square to the
+    micrometer's line (the anvil face), at distance X from the thread axis, tilted in that plane
+    by an angle θ from square to the thread axis. It must not cut into either helicoidal flank
+    ``z = Lφ/2π ± (P/4 + (ρ − E/2)·tan a)``. For a given θ the deepest X it can sink to is the
+    largest, over the flank, of ``ρ cos φ + √(r² − v²)`` (v the distance of the flank point from
+    the wire's axis measured in the anvil plane). The maximum over the flank's radius ρ has a
+    closed form, leaving a one-dimensional maximum over the helix angle φ; the anvil pushes the
+    wire until it settles at the tilt that lets it sink deepest, so X = min over θ of that
+    maximum. Both searches are golden-section searches (pure Python, a few milliseconds). The
+    groove is symmetric under a half turn about the micrometer's line, so the wire touches both
+    flanks; M = 2X + W. With L = 0 this reduces to ``simple`` exactly, and for small lead
+    angles it agrees with ``h28`` (tests check both).
+
+All lengths in mm. Wire sizes: best W = P / (2 cos a) touches the flanks at the pitch line;
+the smallest usable wire must stand proud of the crest, the largest must still touch the flank
+on its straight part, below where the crest flat or the crest rounding begins (basic profile,
+axial section, lead angle neglected — as the published ranges are worked out).
+
+References: NBS Handbook H28 (1957) Part I, Section IX, "Measurement of pitch diameter by the
+three-wire method"; ASME B1.2 (gages and gaging for Unified threads), three-wire appendix;
+Jones, *Turning and Boring* (1914), m = d − 1.5155p + 3w; BS 84 / BS 93 basic forms for the
+rounded crests. Constants as collected in ../shared/reference/published-values.md §5.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Iterable, Literal, Sequence
+
+from shopterm.errors import InvalidEntry
+from shopterm.lathe.machine import WireSize
+from shopterm.standards.forms import ThreadForm
+from shopterm.units import MM_PER_INCH, Unit, format_length
+
+Method = Literal["exact", "h28", "simple"]
+METHODS: tuple[Method, ...] = ("exact", "h28", "simple")
+
+#: Shown wherever readings are taken.
+MEASURE_CAUTION = ("Stop the spindle and put the half nut out before placing wires; keep the "
+                   "chuck key out and hands clear of the chuck. Follow your shop's rules and "
+                   "the lathe maker's instructions.")
+
+#: Readings of one place may differ by this many micrometer steps before it means something
+#: (a wire out of place, a burr, taper). Common practice, no source.
+SPREAD_STEPS = 2
+
+_GOLDEN = (math.sqrt(5) - 1) / 2
+
+
+def _positive(value: float, what: str) -> float:
+    if not isinstance(value, (int, float)) or isinstance(value, bool) or not math.isfinite(value):
+        raise InvalidEntry(f"The {what} must be a number.")
+    if value <= 0:
+        raise InvalidEntry(f"The {what} must be greater than zero.")
+    return float(value)
+
+
+# ---- constants and wire sizes ----------------------------------------------------------------
+
+@dataclass(frozen=True)
+class WireConstants:
+    """Three-wire constants of a form, all as multiples of the pitch or of the wire.
+
+    M = E + c_w·W − c_p·P (lead angle neglected); ``best``/``smallest``/``largest`` are wire
+    diameters over P.
+    """
+
+    form_key: str
+    angle_deg: float
+    c_w: float
+    c_p: float
+    best: float
+    smallest: float
+    largest: float
+
+
+def _flank_limits(form: ThreadForm) -> tuple[float, float, float]:
+    """Return (crest height, straight flank top, straight flank bottom) over P, from the root apex."""
+    a = form.half_angle_rad
+    H = form.height
+    tangent = math.cos(a) ** 2 / math.sin(a)   # radial depth of an arc's tangent point per radius
+    crest_top = H - form.crest_trunc
+    top = H - (form.crest_radius * tangent if form.crest_radius > 0 else form.crest_trunc)
+    bottom = form.root_radius * tangent if form.root_radius > 0 else form.root_trunc
+    return crest_top, top, bottom
+
+
+def wire_constants(form: ThreadForm) -> WireConstants:
+    """Return the three-wire constants and the usable wire range of ``form`` (over P).
+
+    form: a symmetric basic form. The wire's top stands (W/2)(1 + cosec a) above the sharp root
+    and touches the flank (W/2)·cos²a / sin a above it; a crest rounding of radius R ends its
+    straight flank R·cos²a / sin a below the sharp crest.
+    References: NBS H28 three-wire method; published-values.md §5 (60° range 0.505182P–1.010363P);
+    BS 84, BS 93 crest radii.
+    """
+    a = form.half_angle_rad
+    c_w = 1 + 1 / math.sin(a)
+    c_p = 0.5 / math.tan(a)
+    contact = math.cos(a) ** 2 / (2 * math.sin(a))   # contact height per unit wire diameter
+    crest_top, top, bottom = _flank_limits(form)
+    smallest = max(crest_top / (c_w / 2), bottom / contact)
+    largest = top / contact
+    return WireConstants(form.key, form.angle_deg, c_w, c_p, 1 / (2 * math.cos(a)),
+                         smallest, largest)
+
+
+@dataclass(frozen=True)
+class WireRange:
+    """Wire diameters [mm] for one thread: the best, the smallest and largest that work."""
+
+    pitch: float
+    best: float
+    smallest: float
+    largest: float
+
+    def fits(self, wire: float) -> bool:
+        """Return whether a wire of diameter ``wire`` [mm] works on this thread."""
+        return self.smallest * (1 + 1e-9) < wire <= self.largest * (1 + 1e-9)
+
+
+def wire_range(form: ThreadForm, pitch: float) -> WireRange:
+    """Return the best, smallest and largest wire [mm] for ``pitch`` [mm] of ``form``.
+
+    References: NBS H28 (best wire P / (2 cos a)); published-values.md §5.
+    """
+    p = _positive(pitch, "pitch")
+    k = wire_constants(form)
+    return WireRange(p, k.best * p, k.smallest * p, k.largest * p)
+
+
+def _wire_label(w: WireSize, unit: Unit) -> str:
+    if w.label:
+        return w.label
+    return format_length(w.marked, unit, 0.0001 if unit == "in" else 0.001)
+
+
+@dataclass(frozen=True)
+class WireCheck:
+    """Whether one wire can measure this thread, and which owned wires could."""
+
+    wire: float                       # [mm], the diameter checked
+    ok: bool
+    range: WireRange
+    message: str                      # what to tell the user ('' when ok)
+    would_work: tuple[WireSize, ...]  # owned wires that fit, best first
+
+
+def check_wire(form: ThreadForm, pitch: float, wire: float, owned: Iterable[WireSize] = (),
+               unit: Unit = "mm") -> WireCheck:
+    """Return whether a wire of diameter ``wire`` [mm] works on ``pitch`` [mm] of ``form``.
+
+    owned: the wire sets the user has (their ``size`` is used: measured when known);
+    unit: unit for the message.
+    References: wire range as in ``wire_constants``.
+    """
+    w = _positive(wire, "wire diameter")
+    rng = wire_range(form, pitch)
+    fitting = tuple(sorted((o for o in owned if rng.fits(o.size)),
+                           key=lambda o: abs(o.size - rng.best)))
+    if rng.fits(w):
+        return WireCheck(w, True, rng, "", fitting)
+    res = 0.0001 if unit == "in" else 0.001
+    f = lambda v: format_length(v, unit, res)   # noqa: E731
+    why = ("too small: it would sink below the crest" if w <= rng.smallest
+           else "too large: it would ride on the crest, not the flanks")
+    if fitting:
+        use = "Use " + " or ".join(_wire_label(o, unit) for o in fitting) + " from your sets."
+    else:
+        use = "None of your sets fits: use a wire close to " + f(rng.best) + "."
+    msg = (f"A {f(w)} wire is {why} of this thread (it needs {f(rng.smallest)} to "
+           f"{f(rng.largest)}, best {f(rng.best)}). {use}")
+    return WireCheck(w, False, rng, msg, fitting)
+
+
+def require_wire(form: ThreadForm, pitch: float, wire: float, owned: Iterable[WireSize] = (),
+                 unit: Unit = "mm") -> WireCheck:
+    """Return the check of a wire that works; raise ``InvalidEntry`` naming the owned wires that would.
+
+    References: as ``check_wire``.
+    """
+    chk = check_wire(form, pitch, wire, owned, unit)
+    if not chk.ok:
+        raise InvalidEntry(chk.message)
+    return chk
+
+
+@dataclass(frozen=True)
+class WireChoice:
+    """The wire to measure with: an owned set when one fits, else the best size to get."""
+
+    size: float                # [mm] diameter to compute with
+    owned: WireSize | None     # the owned set chosen, or None
+    range: WireRange
+    note: str
+
+
+def choose_wire(form: ThreadForm, pitch: float, owned: Iterable[WireSize] = (),
+                unit: Unit = "mm") -> WireChoice:
+    """Return the owned wire closest to the best size that works, else the best size itself.
+
+    References: as ``check_wire``.
+    """
+    owned = tuple(owned)
+    rng = wire_range(form, pitch)
+    fitting = sorted((o for o in owned if rng.fits(o.size)), key=lambda o: abs(o.size - rng.best))
+    res = 0.0001 if unit == "in" else 0.001
+    if fitting:
+        o = fitting[0]
+        return WireChoice(o.size, o, rng, f"Using your {_wire_label(o, unit)} wires.")
+    what = "None of your wire sets fits this thread" if owned else "No wire sets are configured"
+    return WireChoice(rng.best, None, rng,
+                      f"{what}: figures are for the best size, {format_length(rng.best, unit, res)} "
+                      f"(anything from {format_length(rng.smallest, unit, res)} to "
+                      f"{format_length(rng.largest, unit, res)} works).")
+
+
+# ---- the three-wire relation ----------------------------------------------------------------
+
+def _check_common(wire: float, pitch: float, lead: float | None) -> tuple[float, float, float]:
+    w = _positive(wire, "wire diameter")
+    p = _positive(pitch, "pitch")
+    l = p if lead is None else _positive(lead, "lead")
+    return w, p, l
+
+
+def over_wires_simple(pd: float, wire: float, form: ThreadForm, pitch: float) -> float:
+    """Return the measurement over wires [mm], lead angle neglected.
+
+    pd: pitch diameter [mm]; wire: diameter [mm]; pitch [mm].
+    References: NBS H28, M = E + W(1 + cosec a) − (P/2)·cot a.
+    """
+    w, p, _ = _check_common(wire, pitch, None)
+    k = wire_constants(form)
+    return pd + k.c_w * w - k.c_p * p
+
+
+def pd_simple(m: float, wire: float, form: ThreadForm, pitch: float) -> float:
+    """Return the pitch diameter [mm] from a measurement over wires, lead angle neglected.
+
+    m: over wires [mm]; wire [mm]; pitch [mm].
+    References: NBS H28, E = M − W(1 + cosec a) + (P/2)·cot a.
+    """
+    w, p, _ = _check_common(wire, pitch, None)
+    k = wire_constants(form)
+    return m - k.c_w * w + k.c_p * p
+
+
+def h28_correction(pd: float, wire: float, form: ThreadForm, lead: float) -> float:
+    """Return the NBS H28 lead-angle correction [mm]: ½·W·tan²λ·cos a·cot a.
+
+    pd [mm] (for tan λ = L / (π E)); wire [mm]; lead [mm].
+    References: NBS Handbook H28 / ASME B1.2 three-wire formula with lead-angle term.
+    """
+    a = form.half_angle_rad
+    tan_l = lead / (math.pi * pd)
+    return 0.5 * wire * tan_l ** 2 * math.cos(a) / math.tan(a)
+
+
+def over_wires_h28(pd: float, wire: float, form: ThreadForm, pitch: float,
+                   lead: float | None = None) -> float:
+    """Return the measurement over wires [mm] with the H28 lead-angle correction.
+
+    pd [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch, one start).
+    References: NBS Handbook H28 / ASME B1.2.
+    """
+    w, p, l = _check_common(wire, pitch, lead)
+    return over_wires_simple(pd, w, form, p) + h28_correction(pd, w, form, l)
+
+
+def pd_h28(m: float, wire: float, form: ThreadForm, pitch: float,
+           lead: float | None = None) -> float:
+    """Return the pitch diameter [mm] from M with the H28 lead-angle correction (iterated on λ).
+
+    m [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
+    References: NBS Handbook H28 / ASME B1.2, tan λ = L / (π E).
+    """
+    w, p, l = _check_common(wire, pitch, lead)
+    e0 = pd_simple(m, w, form, p)
+    if e0 <= 0:
+        raise InvalidEntry("That reading is too small for this wire and pitch: check it.")
+    e = e0
+    for _ in range(30):
+        nxt = e0 - h28_correction(e, w, form, l)
+        if nxt <= 0:
+            raise InvalidEntry("That reading is too small for this wire and pitch: check it.")
+        if abs(nxt - e) < 1e-13:
+            return nxt
+        e = nxt
+    return e
+
+
+@dataclass(frozen=True)
+class WireContact:
+    """Where a wire settles in a helical groove (the exact model)."""
+
+    over_wires: float       # M [mm]
+    axis_distance: float    # X: thread axis to the wire's axis [mm]
+    tilt_deg: float         # θ: the wire's tilt from square to the thread axis [deg]
+    contact_diameter: float  # 2ρ at the contact point [mm]
+    contact_angle_deg: float  # φ of the contact point around the axis [deg]
+
+
+def _golden_max(f, lo: float, hi: float, tol: float):
+    """Return (x, f(x)) maximising a unimodal ``f`` on [lo, hi]."""
+    c = hi - _GOLDEN * (hi - lo)
+    d = lo + _GOLDEN * (hi - lo)
+    fc, fd = f(c), f(d)
+    while hi - lo > tol:
+        if fc > fd:
+            hi, d, fd = d, c, fc
+            c = hi - _GOLDEN * (hi - lo)
+            fc = f(c)
+        else:
+            lo, c, fc = c, d, fd
+            d = lo + _GOLDEN * (hi - lo)
+            fd = f(d)
+    return (c, fc) if fc > fd else (d, fd)
+
+
+def wire_contact(pd: float, wire: float, form: ThreadForm, pitch: float,
+                 lead: float | None = None) -> WireContact:
+    """Return where a wire settles in the helical groove and the exact measurement over wires.
+
+    pd: pitch diameter [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
+    Method in the module docstring: min over the wire's tilt θ of the max over the helix
+    angle φ of the closed-form depth the flank allows.
+    References: geometry of NBS H28 three-wire method (wire square to the micrometer's line,
+    lying in the helical groove); the lead-angle correction of H28 is its small-angle form.
+    """
+    w, p, l = _check_common(wire, pitch, lead)
+    e = _positive(pd, "pitch diameter")
+    r = w / 2
+    tan_a = math.tan(form.half_angle_rad)
+    k = l / (2 * math.pi)
+    c0 = p / 4 - e / 2 * tan_a
+    cos, sin, sqrt = math.cos, math.sin, math.sqrt
+
+    def sink_limit(theta: float):
+        ct, st = cos(theta), sin(theta)
+        tct = tan_a * ct
+        c0ct = c0 * ct
+        kct = k * ct
+
+        def g(phi: float) -> float:
+            c = cos(phi)
+            b = sin(phi) * st - tct
+            if b > -1e-12:
+                return -math.inf
+            return c * (kct * phi + c0ct) / b - r * sqrt(b * b + c * c) / b
+
+        # The contact lies within a wire's reach of the plane of the wire: scan, then refine.
+        reach = min(1.2, 3 * (r + p) / max(e, 1e-9))
+        n = 8
+        step = 2 * reach / n
+        best_i, best_v = 0, -math.inf
+        for i in range(n + 1):
+            v = g(-reach + i * step)
+            if v > best_v:
+                best_i, best_v = i, v
+        lo = -reach + max(best_i - 1, 0) * step
+        hi = -reach + min(best_i + 1, n) * step
+        phi, x = _golden_max(g, lo, hi, 1e-7)
+        return x, phi
+
+    lam = math.atan(k / max(e / 2 - p / 2, e / 4))   # helix angle near the root: above the optimum
+    hi = min(1.3, 1.6 * lam + 1e-3)
+    lo = -1e-3 if k == 0 else 0.0
+    theta, _ = _golden_max(lambda t: -sink_limit(t)[0], lo, hi, 1e-6)
+    x, phi = sink_limit(theta)
+    ct, st = cos(theta), sin(theta)
+    b = sin(phi) * st - tan_a * ct
+    c = cos(phi)
+    u = -r * c / sqrt(b * b + c * c)
+    rho = (u + (k * phi + c0) * ct) / b
+    return WireContact(2 * x + w, x, math.degrees(theta), 2 * rho, math.degrees(phi))
+
+
+def over_wires_exact(pd: float, wire: float, form: ThreadForm, pitch: float,
+                     lead: float | None = None) -> float:
+    """Return the measurement over wires [mm] from the exact helical-groove model.
+
+    pd [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
+    References: see ``wire_contact``.
+    """
+    return wire_contact(pd, wire, form, pitch, lead).over_wires
+
+
+def pd_exact(m: float, wire: float, form: ThreadForm, pitch: float,
+             lead: float | None = None) -> float:
+    """Return the pitch diameter [mm] for a measurement over wires, exact helical-groove model.
+
+    m: over wires [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
+    Solved by fixed-point steps E ← E + (m − M(E)) from the H28 value (dM/dE is close to 1).
+    References: see ``wire_contact``.
+    """
+    e = pd_h28(m, wire, form, pitch, lead)
+    for _ in range(25):
+        step = m - over_wires_exact(e, wire, form, pitch, lead)
+        e += step
+        if e <= 0:
+            raise InvalidEntry("That reading is too small for this wire and pitch: check it.")
+        if abs(step) < 1e-10:
+            break
+    return e
+
+
+def over_wires(pd: float, wire: float, form: ThreadForm, pitch: float,
+               lead: float | None = None, method: Method = "exact") -> float:
+    """Return the measurement over wires [mm] by ``method`` ('exact', 'h28' or 'simple').
+
+    pd [mm]; wire [mm]; pitch [mm]; lead [mm].
+    References: see the module docstring.
+    """
+    if method == "exact":
+        return over_wires_exact(pd, wire, form, pitch, lead)
+    if method == "h28":
+        return over_wires_h28(pd, wire, form, pitch, lead)
+    if method == "simple":
+        return over_wires_simple(pd, wire, form, pitch)
+    raise InvalidEntry(f"No method {method!r}: use exact, h28 or simple.")
+
+
+def pitch_diameter(m: float, wire: float, form: ThreadForm, pitch: float,
+                   lead: float | None = None, method: Method = "exact") -> float:
+    """Return the pitch diameter [mm] from a measurement over wires by ``method``.
+
+    m [mm]; wire [mm]; pitch [mm]; lead [mm].
+    References: see the module docstring.
+    """
+    if method == "exact":
+        return pd_exact(m, wire, form, pitch, lead)
+    if method == "h28":
+        return pd_h28(m, wire, form, pitch, lead)
+    if method == "simple":
+        return pd_simple(m, wire, form, pitch)
+    raise InvalidEntry(f"No method {method!r}: use exact, h28 or simple.")
+
+
+@dataclass(frozen=True)
+class PitchFromWires:
+    """The pitch diameter a measurement over wires gives, by each method [mm]."""
+
+    over_wires: float
+    wire: float
+    pd: float            # exact model: the one to act on
+    pd_h28: float        # handbook lead-angle correction
+    pd_simple: float     # classic formula, lead angle neglected
+    lead_angle_deg: float  # at the pitch diameter found
+
+
+def read_pitch_diameter(m: float, wire: float, form: ThreadForm, pitch: float,
+                        lead: float | None = None) -> PitchFromWires:
+    """Return the pitch diameter from ``m`` by the exact, H28 and simple methods.
+
+    m: over wires [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
+    References: see the module docstring.
+    """
+    w, p, l = _check_common(wire, pitch, lead)
+    e = pd_exact(m, w, form, p, l)
+    return PitchFromWires(m, w, e, pd_h28(m, w, form, p, l), pd_simple(m, w, form, p),
+                          math.degrees(math.atan(l / (math.pi * e))))
+
+
+# ---- the band over wires --------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class WireBand:
+    """What the micrometer should read over a wire for the pitch-diameter band [mm]."""
+
+    wire: float
+    at_pd_max: float
+    at_pd_mid: float
+    at_pd_min: float
+    at_pd_max_simple: float
+    at_pd_min_simple: float
+    lead_angle_deg: float
+
+
+def band_over_wires(form: ThreadForm, pitch: float, lead: float, pd_max: float, pd_min: float,
+                    wire: float) -> WireBand:
+    """Return the readings over ``wire`` that bound the pitch-diameter band (exact model).
+
+    pitch, lead [mm]; pd_max, pd_min [mm]; wire [mm].
+    References: see the module docstring.
+    """
+    mid = (pd_max + pd_min) / 2
+    return WireBand(wire,
+                    over_wires_exact(pd_max, wire, form, pitch, lead),
+                    over_wires_exact(mid, wire, form, pitch, lead),
+                    over_wires_exact(pd_min, wire, form, pitch, lead),
+                    over_wires_simple(pd_max, wire, form, pitch),
+                    over_wires_simple(pd_min, wire, form, pitch),
+                    math.degrees(math.atan(lead / (math.pi * mid))))
+
+
+# ---- readings ---------------------------------------------------------------------------------
+
+class ReadingSlip(InvalidEntry):
+    """A reading no pitch diameter of this thread could give: likely a unit or entry slip.
+
+    ``likely`` is the value [mm] the reading probably meant (in the other unit), or None.
+    """
+
+    def __init__(self, message: str, likely: float | None = None):
+        super().__init__(message)
+        self.likely = likely
+
+
+def plausible_readings(form: ThreadForm, pitch: float, lead: float, major: float, minor: float,
+                       wire: float) -> tuple[float, float]:
+    """Return the lowest and highest reading [mm] any pitch diameter from ``minor`` to ``major`` gives.
+
+    pitch, lead, major, minor (basic diameters) [mm]; wire [mm].
+    The exact model reads at least the simple value and adds less than the H28 lead-angle
+    term (tests check both), so twice that term bounds the high end.
+    References: NBS H28 simple and lead-corrected three-wire formulas.
+    """
+    lo = over_wires_simple(minor, wire, form, pitch)
+    hi = over_wires_simple(major, wire, form, pitch) + 2 * h28_correction(minor, wire, form, lead)
+    return lo, hi
+
+
+def check_reading(m: float, form: ThreadForm, pitch: float, lead: float, major: float,
+                  minor: float, wire: float, unit: Unit = "mm") -> float:
+    """Return ``m`` [mm] when a reading over ``wire`` is possible; raise ``ReadingSlip`` if not.
+
+    A reading about 25.4 times too large or too small is named as a likely mm/inch slip.
+    m [mm]; pitch, lead, major, minor [mm]; wire [mm]; unit: the unit for the message.
+    References: ``plausible_readings``; 1 in = 25.4 mm exactly.
+    """
+    if not isinstance(m, (int, float)) or not math.isfinite(m) or m <= 0:
+        raise ReadingSlip("A reading over wires must be a length greater than zero.")
+    lo, hi = plausible_readings(form, pitch, lead, major, minor, wire)
+    if lo <= m <= hi:
+        return float(m)
+    res = 0.0001 if unit == "in" else 0.001
+    f = lambda v, u=unit: format_length(v, u, 0.0001 if u == "in" else 0.001)  # noqa: E731
+    seen = format_length(m, unit, res)
+    span = f"between {f(lo)} and {f(hi)}"
+    if lo <= m * MM_PER_INCH <= hi:
+        likely = m * MM_PER_INCH
+        raise ReadingSlip(f"A reading of {seen} cannot be right over these wires (it must be "
+                          f"{span}). It looks like inches taken as mm: did you mean "
+                          f"{f(likely, 'in')}? Type it with its unit, e.g. "
+                          f"{format_length(likely, 'in', 0.0001, suffix=False)}in.", likely)
+    if lo <= m / MM_PER_INCH <= hi:
+        likely = m / MM_PER_INCH
+        raise ReadingSlip(f"A reading of {seen} cannot be right over these wires (it must be "
+                          f"{span}). It looks like mm taken as inches: did you mean "
+                          f"{f(likely, 'mm')}? Type it with its unit, e.g. "
+                          f"{format_length(likely, 'mm', 0.001, suffix=False)}mm.", likely)
+    raise ReadingSlip(f"A reading of {seen} cannot be right over these wires (it must be "
+                      f"{span}): check the reading, the wire size and the thread chosen.")
+
+
+@dataclass(frozen=True)
+class Readings:
+    """One or several readings over wires [mm]: their mean and spread, and whether to trust it."""
+
+    values: tuple[float, ...]
+    mean: float
+    spread: float             # largest minus smallest
+    resolution: float         # the micrometer's step [mm]
+    steady: bool              # spread within SPREAD_STEPS steps
+    warning: str              # '' when steady
+
+
+def summarise_readings(values: Sequence[float], resolution: float,
+                       unit: Unit = "mm") -> Readings:
+    """Return the mean and spread of ``values`` [mm] and a warning when they spread too far.
+
+    resolution: the micrometer's smallest step [mm]; unit: for the message.
+    References: arithmetic mean; spread threshold of SPREAD_STEPS steps (common practice).
+    """
+    vals = tuple(float(v) for v in values)
+    if not vals:
+        raise InvalidEntry("Enter at least one reading over the wires.")
+    res = _positive(resolution, "micrometer resolution")
+    for v in vals:
+        if not math.isfinite(v) or v <= 0:
+            raise InvalidEntry("A reading over wires must be a length greater than zero.")
+    mean = math.fsum(vals) / len(vals)
+    spread = max(vals) - min(vals)
+    steady = spread <= SPREAD_STEPS * res * (1 + 1e-6)
+    warning = ""
+    if not steady:
+        shown = 0.0001 if unit == "in" else 0.001
+        warning = (f"The readings spread {format_length(spread, unit, shown)}, more than the "
+                   f"micrometer's {SPREAD_STEPS} steps of {format_length(res, unit, shown / 10)}: "
+                   "check that each wire sits in its groove, look for a burr, and measure at "
+                   "both ends for taper before feeding.")
+    return Readings(vals, mean, spread, res, steady, warning)
