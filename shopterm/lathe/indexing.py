@@ -103,8 +103,9 @@ def _divide_method(key: str, title: str, count: int | None, starts: int, unit: s
         return IndexMethod(key, title, False, None, unit, False,
                            f"{title}: {count} {what} do not divide by {starts} starts.")
     step = count // starts
+    word = unit[:-1] if step == 1 and unit.endswith("s") else unit
     return IndexMethod(key, title, True, float(step), unit, True,
-                       f"{title}: {step} {unit} on per start ({count} {what}).", how)
+                       f"{title}: {step} {word} on per start ({count} {what}).", how)
 
 
 def indexing_methods(lead: float | Fraction, starts: int, *,
