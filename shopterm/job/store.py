@@ -250,6 +250,10 @@ class Store:
     def _open_writable(self) -> None:
         for attempt in range(2):
             try:
+                if attempt == 0 and self.path.exists() and self.path.stat().st_size == 0 \
+                        and Path(str(self.path) + "-wal").exists():
+                    # SQLite would take an empty file for a new record and drop the log beside it.
+                    raise sqlite3.DatabaseError("the record file is empty")
                 self._conn = sqlite3.connect(self.path, isolation_level=None, timeout=5)
                 version = self._check()
                 break
@@ -321,7 +325,7 @@ class Store:
                 os.replace(src, Path(str(target) + suffix))
         self._notices.append(
             f"The job record could not be read ({exc}); it has been kept as {target.name} and a "
-            "fresh record started. Earlier jobs are not lost from that file, but are not shown.")
+            "fresh record started. Earlier jobs are still in that file, but not shown here.")
 
     def _migrate(self, version: int) -> None:
         backup = _aside(self.path, f"v{version}-backup")
