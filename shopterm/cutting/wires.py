@@ -144,9 +144,12 @@ def wire_range(form: ThreadForm, pitch: float) -> WireRange:
 
 
 def _wire_label(w: WireSize, unit: Unit) -> str:
-    if w.label:
-        return w.label
-    return format_length(w.marked, unit, 0.0001 if unit == "in" else 0.001)
+    size = format_length(w.size, unit, 0.0001 if unit == "in" else 0.001)
+    return f"{size} ({w.label})" if w.label else size
+
+
+def _one_of(names: Sequence[str]) -> str:
+    return names[0] if len(names) == 1 else ", ".join(names[:-1]) + " or " + names[-1]
 
 
 @dataclass(frozen=True)
@@ -179,7 +182,7 @@ def check_wire(form: ThreadForm, pitch: float, wire: float, owned: Iterable[Wire
     why = ("too small: it would sink below the crest" if w <= rng.smallest
            else "too large: it would ride on the crest, not the flanks")
     if fitting:
-        use = "Use " + " or ".join(_wire_label(o, unit) for o in fitting) + " from your sets."
+        use = "Use " + _one_of([_wire_label(o, unit) for o in fitting]) + " from your sets."
     else:
         use = "None of your sets fits: use a wire close to " + f(rng.best) + "."
     msg = (f"A {f(w)} wire is {why} of this thread (it needs {f(rng.smallest)} to "
