@@ -31,6 +31,7 @@ from __future__ import annotations
 
 import math
 import re
+from decimal import Decimal
 from fractions import Fraction
 
 from shopterm.errors import InvalidEntry
@@ -77,8 +78,9 @@ def _num(text: str) -> float:
 
 
 def _g(value: float) -> str:
-    """Return a number written short and exact enough to read back (10 significant figures)."""
-    return f"{value:.10g}"
+    """Return a number written short and exact enough to read back (10 significant figures),
+    never in exponent form (the designation grammar has none)."""
+    return "{:f}".format(Decimal(f"{value:.10g}"))
 
 
 def _positive(value: float | None, what: str, how: str) -> None:
@@ -228,8 +230,8 @@ def format(spec: ThreadSpec) -> str:
     d = _g(from_mm(spec.major, unit)) + ("" if unit == default_unit else unit)
     p = f"{_g(spec.tpi)}TPI" if spec.tpi is not None else _g(spec.pitch)
     parts = [f"SPECIAL {d}x{p}", f"{spec.form.angle_deg:g}"]
-    if spec.allowance:
-        parts.append(f"A{_g(from_mm(abs(spec.allowance), unit))}")
+    if spec.allowance and float(a := _g(from_mm(abs(spec.allowance), unit))) != 0:
+        parts.append(f"A{a}")
     if spec.pd_tolerance is not None:
         parts.append(f"T{_g(from_mm(spec.pd_tolerance, unit))}")
     if spec.major_tolerance is not None:
