@@ -1,0 +1,15 @@
+"""The app's screens. ``REGISTRY`` maps a screen name to its module and class (loaded on first use)."""
+
+REGISTRY: dict[str, tuple[str, str, str]] = {
+    # name: (module, class, title in the menu)
+    "thread": ("shopterm.ui.screens.thread", "ThreadScreen", "Thread"),
+    "setup": ("shopterm.ui.screens.setup", "SetupScreen", "Lathe set-up"),
+    "checklist": ("shopterm.ui.screens.checklist", "ChecklistScreen", "Checklist"),
+    "counter": ("shopterm.ui.screens.counter", "CounterScreen", "Pass counter"),
+    "wires": ("shopterm.ui.screens.wires", "WiresScreen", "Wire reading"),
+    "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
+    "jobs": ("shopterm.ui.screens.jobs", "JobsScreen", "Jobs and export"),
+}
+
+#: The order a job goes through; ``+`` moves along it.
+FLOW: tuple[str, ...] = ("thread", "setup", "checklist", "counter", "wires")

@@ -1,0 +1,61 @@
+"""The menu of screens (``*``) and the yes/no question (undo, finish)."""
+
+from __future__ import annotations
+
+from textual.app import ComposeResult
+from textual.containers import Vertical
+from textual.screen import ModalScreen
+from textual.widgets import Static
+
+from shopterm.ui import keys
+from shopterm.ui.screens import REGISTRY
+from shopterm.ui.widgets.picklist import PickList
+
+
+class MenuScreen(ModalScreen[str | None]):
+    """Numbered list of screens; a digit goes there."""
+
+    DEFAULT_CSS = """
+    MenuScreen { align: center middle; }
+    MenuScreen > Vertical { width: 44; height: auto; border: round $primary; background: $surface; padding: 0 1; }
+    """
+    BINDINGS = [keys.bind(keys.MENU + "," + keys.BACK, "dismiss_menu", "close")]
+
+    def compose(self) -> ComposeResult:
+        items = [(title, name) for name, (_, _, title) in REGISTRY.items()]
+        items += [("Help", "help"), ("Quit (the record is saved)", "quit")]
+        with Vertical():
+            yield Static("[b]Go to[/b]  (digit, or ↑↓ Enter;  * or - closes)")
+            yield PickList(items, columns=1, id="menu-list")
+
+    def on_mount(self) -> None:
+        self.query_one(PickList).focus()
+
+    def on_pick_list_picked(self, event: PickList.Picked) -> None:
+        self.dismiss(event.value)
+
+    def action_dismiss_menu(self) -> None:
+        self.dismiss(None)
+
+
+class ConfirmScreen(ModalScreen[bool]):
+    """A question answered with Enter (yes) or - (no)."""
+
+    DEFAULT_CSS = """
+    ConfirmScreen { align: center middle; }
+    ConfirmScreen > Vertical { width: 60; height: auto; border: round $warning; background: $surface; padding: 0 1; }
+    """
+    BINDINGS = [keys.bind(keys.CONFIRM, "answer(True)", "yes"),
+                keys.bind(keys.BACK + "," + keys.UNDO, "answer(False)", "no")]
+
+    def __init__(self, question: str) -> None:
+        super().__init__()
+        self.question = question
+
+    def compose(self) -> ComposeResult:
+        with Vertical():
+            yield Static(self.question)
+            yield Static("[b] Enter [/b] yes     [b] - [/b] no")
+
+    def action_answer(self, yes: bool) -> None:
+        self.dismiss(yes)

@@ -1,0 +1,444 @@
+"""Choosing the thread: type a designation, or walk group → series → size → pitch → kind → class."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+
+from rich.table import Table
+from rich.text import Text
+from textual import events, on
+from textual.app import ComposeResult
+from textual.widgets import Static
+
+from shopterm.errors import ShoptermError
+from shopterm.standards import classes, limits, parse, walk
+from shopterm.standards.spec import ThreadSpec
+from shopterm.ui import keys
+from shopterm.ui.screens.base import ShopScreen
+from shopterm.ui.widgets.entry import KeypadEntry
+from shopterm.ui.widgets.picklist import PickList
+from shopterm.units import format_length
+
+STARTS_CYCLE = (1, 2, 3, 4, 5, 6, 8)
+NO_CLASS = "basic size"
+
+
+@dataclass
+class Walk:
+    """What has been picked so far in the list walk."""
+
+    group: str | None = None
+    series: str | None = None
+    size: str | None = None
+    base: ThreadSpec | None = None         # size and pitch picked
+    kind: str | None = None
+    cls: str | None = "unset"             # "unset" until picked; None = basic size
+    spec: ThreadSpec | None = None         # the complete thread
+    special: dict = field(default_factory=dict)
+    history: list = field(default_factory=list)
+
+    def snapshot(self) -> None:
+        self.history.append(replace(self, history=[], special=dict(self.special)))
+
+    def restore(self) -> bool:
+        if not self.history:
+            return False
+        last = self.history.pop()
+        hist = self.history
+        self.__dict__.update(last.__dict__)
+        self.history = hist
+        return True
+
+
+SPECIAL_STEPS = (
+    ("unit", "Special thread: diameters in"),
+    ("major", "Major diameter"),
+    ("pitch_kind", "Pitch given as"),
+    ("pitch", "Pitch"),
+    ("angle", "Form angle"),
+    ("allowance", "Allowance on PD and major (0 for none)"),
+    ("pd_tol", "Pitch-diameter tolerance (0 for basic only)"),
+)
+
+
+def limits_table(spec: ThreadSpec, display_unit: str) -> Table:
+    """Return the limits of ``spec`` as a table in the display unit and the standard's unit."""
+    lim = limits(spec)
+    units = [display_unit] + ([spec.native_unit] if spec.native_unit != display_unit else [])
+    t = Table(box=None, padding=(0, 1), show_edge=False, expand=False)
+    t.add_column("", style="bold")
+    for u in units:
+        t.add_column(f"max {u}", justify="right")
+        t.add_column(f"min {u}", justify="right")
+
+    def cells(vmax, vmin):
+        out = []
+        for u in units:
+            for v in (vmax, vmin):
+                out.append("—" if v is None else format_length(v, u, suffix=False))
+        return out
+
+    t.add_row("major", *cells(lim.major_max, lim.major_min))
+    t.add_row("pitch diameter", *cells(lim.pd_max, lim.pd_min), style="bold")
+    t.add_row("minor", *cells(lim.minor_max, lim.minor_min))
+    return t
+
+
+def thread_summary(spec: ThreadSpec, display_unit: str) -> Text:
+    """Return the one-line summary under the designation: kind, form, pitch, lead, lead angle."""
+    lim = limits(spec)
+    pitch = (f"{spec.tpi:g} tpi" if spec.tpi else
+             f"P {format_length(spec.pitch, 'mm', 0.001, suffix=False).rstrip('0').rstrip('.')}")
+    out = Text()
+    out.append(spec.designation, style="bold")
+    out.append(f"  {spec.kind} · {spec.form.angle_deg:g}° · {pitch}")
+    if spec.starts > 1:
+        out.append(f" · {spec.starts} starts, lead {format_length(spec.lead, display_unit)}")
+    if spec.hand == "LH":
+        out.append(" · left hand")
+    out.append(f"\nbasic depth {format_length(lim.depth, display_unit)}"
+               + (f" ({format_length(lim.depth, spec.native_unit)})"
+                  if spec.native_unit != display_unit else "")
+               + f" · lead angle {lim.lead_angle_deg:.2f}°")
+    for note in lim.notes[:2]:
+        out.append(f"\nnote: {note}", style="dim")
+    return out
+
+
+class ThreadScreen(ShopScreen):
+    SCREEN_NAME = "thread"
+    AUTO_FOCUS = "#choices"
+    TITLE = "Thread"
+    BINDINGS = [keys.bind("tab", "type_designation", "type", show=False)]
+    HELP = (("1-9", "pick from the numbered list; 0 = next page"),
+            ("-", "go back one step in the list"),
+            ("letter", "start typing a designation (M10x1.5-6g, 1/4-20 UNC-2A, 2BA …)"),
+            ("Enter", "in the designation field: look it up; on the result: use this thread"))
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.walk = Walk()
+
+    def compose_body(self) -> ComposeResult:
+        yield KeypadEntry(prompt="Designation: ", placeholder="type e.g. M10x1.5-6g — or pick below",
+                          text=True, id="designation")
+        yield Static("", id="message", classes="message")
+        yield Static("", id="crumbs")
+        yield PickList(id="choices")
+        yield Static("", id="entry-label")
+        yield KeypadEntry(prompt="> ", id="number")
+        yield Static("", id="summary")
+        yield Static("", id="limits")
+
+    def on_mount(self) -> None:
+        super().on_mount()
+        self.show_step()
+
+    # -- typed designation -------------------------------------------------------------------
+    def action_type_designation(self) -> None:
+        self.query_one("#designation", KeypadEntry).focus()
+
+    def on_key(self, event: events.Key) -> None:
+        entry = self.query_one("#designation", KeypadEntry)
+        ch = event.character
+        if not entry.has_focus and ch and (ch.isalpha() or ch == "#"):
+            entry.focus()
+            entry.value += ch
+            event.stop()
+
+    @on(KeypadEntry.Submitted, "#designation")
+    def designation_submitted(self, event: KeypadEntry.Submitted) -> None:
+        text = event.value.strip()
+        if not text:
+            self.query_one("#choices").focus()
+            return
+        try:
+            spec = parse(text)
+            limits(spec)
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        self.walk.snapshot()
+        self.walk.spec = spec
+        self.remember(spec)
+        self.say(f"{spec.designation}: Enter uses it, + goes on to the set-up.")
+        self.show_step()
+
+    # -- the list walk -----------------------------------------------------------------------
+    def choices(self) -> tuple[str, list[tuple[str, object]]]:
+        """Return (title, numbered items) for the step the walk is at."""
+        w = self.walk
+        if w.spec is not None:
+            hand = "left hand" if w.spec.hand == "LH" else "right hand"
+            return ("This thread", [("use it →", "use"), (f"hand: {hand}", "hand"),
+                                    (f"starts: {w.spec.starts}", "starts"),
+                                    ("choose again", "again")])
+        if w.group is None:
+            items = [(g.title, ("group", g.key)) for g in walk.GROUPS]
+            items += [(f"recent {d}", ("recent", d)) for d in self.app_recent()[:3]]
+            return "Thread family (or type a designation)", items
+        if w.group == "special":
+            return self.special_choices()
+        if w.series is None and len(walk.series(w.group)) > 1:
+            return "Series", [(s, ("series", s)) for s in walk.series(w.group)]
+        if w.size is None:
+            return "Size", [(s, ("size", s)) for s in walk.sizes(w.group, w.series)]
+        if w.base is None:
+            specs = walk.pitches(w.group, w.series, w.size)
+            return "Pitch", [(self.pitch_label(s), ("base", s)) for s in specs]
+        if w.kind is None:
+            return "External or internal", [("external (screw)", ("kind", "external")),
+                                            ("internal (nut)", ("kind", "internal"))]
+        if w.cls == "unset":
+            spec = w.base.with_(kind=w.kind, tol_class=None)
+            cls = classes(spec)
+            items = [(c, ("cls", c)) for c in cls]
+            if not cls or w.base.family in ("whitworth", "ba"):
+                items.append((NO_CLASS, ("cls", None)))
+            return "Class of fit", items
+        return "", []
+
+    @staticmethod
+    def pitch_label(spec: ThreadSpec) -> str:
+        if spec.tpi:
+            return f"{spec.tpi:g} tpi {spec.series}"
+        return f"{spec.pitch:g} mm" + (" coarse" if spec.pitch_implied else "")
+
+    def show_step(self) -> None:
+        w = self.walk
+        if w.spec is None and w.group and w.cls != "unset" and w.kind and w.base:
+            try:
+                w.spec = self.complete_spec()
+            except ShoptermError as exc:
+                self.say(str(exc), error=True)
+                w.restore()
+        title, items = self.choices()
+        picks = self.query_one("#choices", PickList)
+        number = self.query_one("#number", KeypadEntry)
+        label = self.query_one("#entry-label", Static)
+        entry_step = self.special_entry_step()
+        picks.display = bool(items)
+        number.display = entry_step is not None
+        label.display = entry_step is not None
+        if items:
+            picks.set_items(items, title)
+            if not self.query_one("#designation", KeypadEntry).has_focus:
+                picks.focus()
+        if entry_step is not None:
+            label.update(entry_step)
+            number.clear()
+            number.focus()
+        self.query_one("#crumbs", Static).update(self.crumbs())
+        self.show_result()
+
+    def complete_spec(self) -> ThreadSpec:
+        w = self.walk
+        spec = w.base.with_(kind=w.kind, tol_class=w.cls, pitch_implied=False)
+        limits(spec)  # refuses a class the tables lack
+        return spec
+
+    def crumbs(self) -> Text:
+        w = self.walk
+        parts = []
+        if w.group:
+            parts.append(walk.group(w.group).title)
+        for v in (w.series, w.size):
+            if v:
+                parts.append(v)
+        if w.base is not None:
+            parts.append(self.pitch_label(w.base))
+        if w.kind:
+            parts.append(w.kind)
+        if w.cls not in ("unset",):
+            parts.append(w.cls or NO_CLASS)
+        return Text(" › ".join(parts), style="dim") if parts else Text("")
+
+    def show_result(self) -> None:
+        spec = self.walk.spec
+        summary = self.query_one("#summary", Static)
+        table = self.query_one("#limits", Static)
+        if spec is None:
+            summary.update("")
+            table.update("")
+            return
+        unit = self.app.shop.display_units
+        summary.update(thread_summary(spec, unit))
+        table.update(limits_table(spec, unit))
+
+    @on(PickList.Picked, "#choices")
+    def picked(self, event: PickList.Picked) -> None:
+        value = event.value
+        w = self.walk
+        if w.spec is not None and isinstance(value, str):
+            self.final_option(value)
+            return
+        what, v = value
+        if what == "recent":
+            try:
+                spec = parse(v)
+            except ShoptermError as exc:
+                self.say(str(exc), error=True)
+                return
+            w.snapshot()
+            w.spec = spec
+        elif what == "special_pick":
+            w.snapshot()
+            key, choice = v
+            w.special[key] = choice
+        else:
+            w.snapshot()
+            setattr(w, what, v)
+            if what == "group" and v != "special" and len(walk.series(v)) == 1:
+                w.series = walk.series(v)[0]
+            if what == "size":
+                specs = walk.pitches(w.group, w.series, w.size)
+                if len(specs) == 1:
+                    w.base = specs[0]
+        self.say("")
+        if w.group == "special" and w.spec is None and self.special_done():
+            self.make_special()
+        self.show_step()
+
+    def final_option(self, option: str) -> None:
+        w = self.walk
+        spec = w.spec
+        if option == "use":
+            self.use_thread()
+            return
+        if option == "again":
+            self.walk = Walk()
+            self.query_one("#designation", KeypadEntry).clear()
+            self.show_step()
+            return
+        try:
+            if option == "hand":
+                spec = spec.with_(hand="RH" if spec.hand == "LH" else "LH")
+            elif option == "starts":
+                i = STARTS_CYCLE.index(spec.starts) if spec.starts in STARTS_CYCLE else 0
+                spec = spec.with_(starts=STARTS_CYCLE[(i + 1) % len(STARTS_CYCLE)])
+            limits(spec)
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        w.spec = spec
+        self.show_step()
+
+    def use_thread(self) -> None:
+        spec = self.walk.spec
+        if spec is None:
+            self.say("Choose a thread first.", error=True)
+            return
+        self.remember(spec)
+        self.app.thread_chosen(spec)
+        self.app.go_forward(self.SCREEN_NAME)
+
+    def action_forward(self) -> None:
+        if self.walk.spec is None:
+            self.say("Choose a thread first: pick from the list or type a designation.",
+                     error=True)
+            return
+        self.use_thread()
+
+    def action_back(self) -> None:
+        entry = self.query_one("#designation", KeypadEntry)
+        if entry.has_focus:
+            self.query_one("#choices").focus()
+            return
+        if self.walk.restore():
+            self.say("")
+            self.show_step()
+        else:
+            self.say("This is the first step: pick a thread family.")
+
+    # -- special threads (keypad form) -------------------------------------------------------
+    def special_entry_step(self) -> str | None:
+        w = self.walk
+        if w.group != "special" or w.spec is not None:
+            return None
+        for key, prompt in SPECIAL_STEPS:
+            if key in w.special:
+                continue
+            if key in ("major", "pitch", "allowance", "pd_tol"):
+                unit = w.special.get("unit", "mm")
+                if key == "pitch" and w.special.get("pitch_kind") == "tpi":
+                    return "Threads per inch"
+                return f"{prompt} [{unit}]"
+            return None
+        return None
+
+    def special_choices(self) -> tuple[str, list]:
+        w = self.walk
+        for key, prompt in SPECIAL_STEPS:
+            if key in w.special:
+                continue
+            if key == "unit":
+                return prompt, [("mm", ("special_pick", ("unit", "mm"))),
+                                ("inch", ("special_pick", ("unit", "in")))]
+            if key == "pitch_kind":
+                return prompt, [("pitch in mm", ("special_pick", ("pitch_kind", "mm"))),
+                                ("threads per inch", ("special_pick", ("pitch_kind", "tpi")))]
+            if key == "angle":
+                return prompt, [("60° (ISO, Unified)", ("special_pick", ("angle", 60.0))),
+                                ("55° (Whitworth)", ("special_pick", ("angle", 55.0))),
+                                ("47.5° (BA)", ("special_pick", ("angle", 47.5)))]
+            return "", []
+        if w.kind is None:
+            return "External or internal", [("external (screw)", ("kind", "external")),
+                                            ("internal (nut)", ("kind", "internal"))]
+        return "", []
+
+    def special_done(self) -> bool:
+        return all(k in self.walk.special for k, _ in SPECIAL_STEPS) and self.walk.kind is not None
+
+    @on(KeypadEntry.Submitted, "#number")
+    def number_submitted(self, event: KeypadEntry.Submitted) -> None:
+        from shopterm.units import parse_number
+        w = self.walk
+        step = next((k for k, _ in SPECIAL_STEPS if k not in w.special), None)
+        if step is None:
+            return
+        try:
+            value = parse_number(event.value)
+            if step in ("major", "pitch") and value <= 0:
+                raise ShoptermError("It must be greater than zero.")
+            if step == "pd_tol" and value < 0:
+                raise ShoptermError("A tolerance cannot be negative.")
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        w.snapshot()
+        w.special[step] = value
+        self.say("")
+        if self.special_done():
+            self.make_special()
+        self.show_step()
+
+    def make_special(self) -> None:
+        from shopterm.standards import special
+        from shopterm.units import to_mm
+        w = self.walk
+        s = w.special
+        unit = s["unit"]
+        try:
+            kwargs = dict(angle_deg=s["angle"], kind=w.kind, unit=unit,
+                          allowance_mm=to_mm(s["allowance"], unit),
+                          pd_tolerance_mm=to_mm(s["pd_tol"], unit) or None)
+            if s["pitch_kind"] == "tpi":
+                kwargs["tpi"] = s["pitch"]
+            else:
+                kwargs["pitch_mm"] = to_mm(s["pitch"], unit)
+            spec = special.make(to_mm(s["major"], unit), **kwargs)
+            limits(spec)
+        except ShoptermError as exc:
+            self.say(f"{exc} Press - to change the last value.", error=True)
+            return
+        w.spec = spec
+
+    # -- recent threads ----------------------------------------------------------------------
+    def app_recent(self) -> list[str]:
+        return list(getattr(self.app, "recent_threads", lambda: [])())
+
+    def remember(self, spec: ThreadSpec) -> None:
+        hook = getattr(self.app, "remember_thread", None)
+        if hook:
+            hook(spec.designation)

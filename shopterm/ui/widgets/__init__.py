@@ -1,0 +1,1 @@
+"""Widgets of our own: keypad entry, numbered pick list, key bar, status line."""

@@ -1,0 +1,111 @@
+"""``KeypadEntry``: an entry field that keeps the keypad's operator keys free for the screen.
+
+A Textual ``Input`` swallows every printable key, so ``+ - * /`` would never reach the screen.
+This widget takes only what it needs (digits, ``.``/``,``, Backspace, and in text mode the
+characters of a designation) and lets every other key bubble up to the screen's bindings.
+"""
+
+from __future__ import annotations
+
+from textual import events
+from textual.message import Message
+from textual.reactive import reactive
+from textual.widget import Widget
+from rich.text import Text
+
+NUMBER_CHARS = set("0123456789.,")
+TEXT_CHARS = set("0123456789.,abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ#/- ()\"'×")
+
+
+class KeypadEntry(Widget, can_focus=True):
+    """A one-line entry for numbers (or, with ``text=True``, designations)."""
+
+    DEFAULT_CSS = """
+    KeypadEntry { height: 1; width: 1fr; padding: 0 1; background: $boost; }
+    KeypadEntry:focus { background: $primary 30%; text-style: bold; }
+    """
+
+    value: reactive[str] = reactive("", layout=False)
+
+    class Submitted(Message):
+        """Enter was pressed; ``value`` is the raw text (the screen parses and checks it)."""
+
+        def __init__(self, entry: "KeypadEntry", value: str) -> None:
+            super().__init__()
+            self.entry = entry
+            self.value = value
+
+        @property
+        def control(self) -> "KeypadEntry":
+            return self.entry
+
+    class Changed(Message):
+        def __init__(self, entry: "KeypadEntry", value: str) -> None:
+            super().__init__()
+            self.entry = entry
+            self.value = value
+
+        @property
+        def control(self) -> "KeypadEntry":
+            return self.entry
+
+    def __init__(self, value: str = "", *, prompt: str = "", placeholder: str = "",
+                 text: bool = False, max_length: int = 40, id: str | None = None,
+                 classes: str | None = None) -> None:
+        super().__init__(id=id, classes=classes)
+        self.prompt = prompt
+        self.placeholder = placeholder
+        self.text_mode = text
+        self.max_length = max_length
+        self.set_reactive(KeypadEntry.value, value)
+
+    def render(self) -> Text:
+        out = Text(self.prompt, style="bold") if self.prompt else Text()
+        if self.value:
+            out.append(self.value)
+        elif self.placeholder and not self.has_focus:
+            out.append(self.placeholder, style="dim")
+        if self.has_focus:
+            out.append("█")
+        return out
+
+    def clear(self) -> None:
+        self.value = ""
+
+    def watch_value(self, value: str) -> None:
+        self.post_message(self.Changed(self, value))
+
+    def _accepts(self, ch: str) -> bool:
+        return ch in (TEXT_CHARS if self.text_mode else NUMBER_CHARS)
+
+    async def _on_key(self, event: events.Key) -> None:
+        key = event.key
+        ch = event.character
+        if key in ("full_stop", "decimal"):
+            ch = "."
+        if key in ("enter", "ctrl+j"):
+            event.stop()
+            event.prevent_default()
+            self.post_message(self.Submitted(self, self.value))
+            return
+        if key in ("backspace", "delete", "ctrl+h"):
+            if self.value:
+                event.stop()
+                event.prevent_default()
+                self.value = self.value[:-1]
+            return  # an empty entry lets Backspace go to the screen
+        if ch and len(ch) == 1 and self._accepts(ch) and key not in ("plus", "asterisk"):
+            if not self.text_mode and ch in "-/":
+                return
+            event.stop()
+            event.prevent_default()
+            if len(self.value) < self.max_length:
+                self.value += ch
+            return
+        await super()._on_key(event)
+
+    def on_focus(self) -> None:
+        self.refresh()
+
+    def on_blur(self) -> None:
+        self.refresh()

@@ -1,0 +1,125 @@
+"""``PickList``: a numbered list a keypad can drive: digits 1–9 pick, 0 turns the page.
+
+With NumLock off, ↑/↓ move the highlight, PgUp/PgDn turn pages and Enter picks.
+"""
+
+from __future__ import annotations
+
+from typing import Any, Sequence
+
+from rich.text import Text
+from textual import events
+from textual.message import Message
+from textual.reactive import reactive
+from textual.widget import Widget
+
+PAGE = 9
+
+
+class PickList(Widget, can_focus=True):
+    """Numbered choices, nine to a page."""
+
+    DEFAULT_CSS = """
+    PickList { height: auto; min-height: 3; padding: 0 1; }
+    PickList:focus { background: $boost; }
+    """
+
+    page: reactive[int] = reactive(0)
+    cursor: reactive[int] = reactive(0)
+
+    class Picked(Message):
+        def __init__(self, picklist: "PickList", index: int, value: Any) -> None:
+            super().__init__()
+            self.picklist = picklist
+            self.index = index
+            self.value = value
+
+        @property
+        def control(self) -> "PickList":
+            return self.picklist
+
+    def __init__(self, items: Sequence[tuple[str, Any]] = (), *, columns: int = 3,
+                 title: str = "", id: str | None = None, classes: str | None = None) -> None:
+        super().__init__(id=id, classes=classes)
+        self.items: list[tuple[str, Any]] = list(items)
+        self.columns = columns
+        self.title = title
+
+    def set_items(self, items: Sequence[tuple[str, Any]], title: str = "") -> None:
+        """Replace the choices and go back to the first page."""
+        self.items = list(items)
+        self.title = title
+        self.page = 0
+        self.cursor = 0
+        self.refresh(layout=True)
+
+    @property
+    def pages(self) -> int:
+        return max(1, -(-len(self.items) // PAGE))
+
+    def page_items(self) -> list[tuple[str, Any]]:
+        start = self.page * PAGE
+        return self.items[start:start + PAGE]
+
+    def render(self) -> Text:
+        out = Text()
+        if self.title:
+            out.append(self.title, style="bold")
+            if self.pages > 1:
+                out.append(f"   page {self.page + 1}/{self.pages}, 0 = next page", style="dim")
+            out.append("\n")
+        items = self.page_items()
+        width = max((len(lbl) for lbl, _ in items), default=4) + 4
+        for i, (lbl, _) in enumerate(items):
+            style = "reverse" if (i == self.cursor and self.has_focus) else ""
+            out.append(f"{i + 1} ", style="bold")
+            out.append(lbl.ljust(width - 2), style=style)
+            if (i + 1) % self.columns == 0 and i + 1 < len(items):
+                out.append("\n")
+            else:
+                out.append("  ")
+        if not items:
+            out.append("(nothing to choose)", style="dim")
+        return out
+
+    def get_content_height(self, container, viewport, width) -> int:
+        rows = -(-max(1, len(self.page_items())) // self.columns)
+        return rows + (1 if self.title else 0)
+
+    def pick(self, index_on_page: int) -> None:
+        items = self.page_items()
+        if 0 <= index_on_page < len(items):
+            self.post_message(self.Picked(self, self.page * PAGE + index_on_page,
+                                          items[index_on_page][1]))
+
+    def next_page(self, step: int = 1) -> None:
+        self.page = (self.page + step) % self.pages
+        self.cursor = 0
+
+    async def _on_key(self, event: events.Key) -> None:
+        key = event.key
+        handled = True
+        if key in "123456789" and len(key) == 1:
+            self.pick(int(key) - 1)
+        elif key == "0":
+            self.next_page()
+        elif key == "pagedown":
+            self.next_page()
+        elif key == "pageup":
+            self.next_page(-1)
+        elif key == "down":
+            self.cursor = min(self.cursor + 1, len(self.page_items()) - 1)
+        elif key == "up":
+            if self.cursor == 0 and self.page > 0:
+                self.next_page(-1)
+            else:
+                self.cursor = max(self.cursor - 1, 0)
+        elif key in ("enter", "ctrl+j"):
+            self.pick(self.cursor)
+        else:
+            handled = False
+        if handled:
+            event.stop()
+            event.prevent_default()
+        else:
+            await super()._on_key(event)
