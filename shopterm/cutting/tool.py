@@ -512,3 +512,27 @@ def _largest_clear_radius(limits: Limits, aim: float, ext: Surface, nut: Surface
         else:
             hi = mid
     return lo
+
+
+def standard_tip(limits: Limits) -> ToolTip:
+    """Return a tip matching the standard's root for this thread (used when none is entered).
+
+    External: the middle of the root-radius rule where the standard gives one (ISO 965-1 minimum
+    0.125P: the ISO 68-1 nominal H/6 = 0.144338P; UNR 0.108P–0.144P: 0.126P; BS 84, BS 93: their
+    radius); otherwise (UN flat root) the design root flat P/8 (from memory). Internal: the
+    form's crest rounding (BS 84, BS 93), else the basic flat P/8 at the basic major.
+    References: ISO 68-1; ISO 965-1; ASME B1.1; BS 84; BS 93.
+    """
+    spec, p = limits.spec, limits.spec.pitch
+    if spec.is_external:
+        lo, hi = limits.root_radius_min, limits.root_radius_max
+        if lo is not None and hi is not None:
+            return ToolTip("radius", (lo + hi) / 2)
+        if lo is not None:
+            return ToolTip("radius", max(lo, spec.form.height / 6 * p))
+        if spec.form.root_radius > 0:
+            return ToolTip("radius", spec.form.root_radius * p)
+        return ToolTip("flat", p / 8)
+    if spec.form.crest_radius > 0:
+        return ToolTip("radius", spec.form.crest_radius * p)
+    return ToolTip("flat", p / 8)
