@@ -28,7 +28,8 @@ class ShoptermApp(App):
         self.shop = config.shop
         self.data_dir_arg = data_dir
         self.start_screen = start_screen
-        self.job = None            # shopterm.job session, opened on mount
+        self.store = None          # shopterm.job.store.Store, opened on mount
+        self.job = None            # shopterm.job.store.JobSession of the open job
         self.spec = None           # the chosen ThreadSpec of the open job
         self._screens_by_name: dict[str, Screen] = {}
         self.current_name: str | None = None
@@ -36,13 +37,98 @@ class ShoptermApp(App):
     # -- start-up ----------------------------------------------------------------------------
     def on_mount(self) -> None:
         self._apply_theme()
-        self.goto(self.start_screen or "thread")
-        self.notify(f"Config: {self.config.path}", timeout=4)
+        self._open_store()
+        last = self.store.last_unfinished() if self.store is not None else None
+        if last is not None and self.start_screen is None:
+            self._offer_resume(last)
+        else:
+            self.goto(self.start_screen or "thread")
+        self.notify(f"Config: {self.config.path} ({self.config.how_found})", timeout=4)
+
+    # -- the job record ----------------------------------------------------------------------
+    def _open_store(self) -> None:
+        from shopterm.job.store import Store, StoreError
+        try:
+            self.store = Store.open(self.data_dir_arg)
+        except StoreError as exc:
+            self.store = None
+            self.notify(f"{exc} Nothing will be saved.", severity="error", timeout=30)
+            return
+        if self.store.message:
+            self.notify(self.store.message, severity="warning", timeout=20)
+
+    def _offer_resume(self, info) -> None:
+        from shopterm.ui.screens.menu import ConfirmScreen
+        session = self.store.open_job(info.id)
+        st = session.state
+        where = f"pass {len(st.passes)} done" if st.passes else "before the first pass"
+        question = (f"Carry on with job {info.id}: {st.current_designation} ({where})?\n"
+                    "Enter: carry on where it stopped.  -: start a new job.")
+
+        def answer(yes: bool | None) -> None:
+            if yes and self._resume(session):
+                return
+            self.goto("thread")
+
+        self.push_screen(ConfirmScreen(question), answer)
+
+    def _resume(self, session) -> bool:
+        """Open ``session``'s job on the screen it was last on; False if its thread won't parse."""
+        from shopterm.errors import ShoptermError
+        from shopterm.standards import parse
+        st = session.state
+        chosen = st.thread.values if st.thread else {}
+        try:
+            spec = parse(st.current_designation, kind=chosen.get("thread_kind", st.thread_kind))
+            if "starts" in chosen and chosen["starts"] != spec.starts:
+                spec = spec.with_(starts=int(chosen["starts"]))
+        except ShoptermError as exc:
+            self.notify(f"Job {session.job_id}'s thread cannot be read ({exc}).", severity="error")
+            return False
+        self.job = session
+        self.spec = spec
+        self.goto(st.last_screen if st.last_screen in REGISTRY else "counter")
+        return True
+
+    def open_job(self, job_id: int) -> bool:
+        """Make job ``job_id`` the open job and show it where it stopped."""
+        if self.store is None:
+            return False
+        return self._resume(self.store.open_job(job_id))
+
+    @property
+    def state(self):
+        """Return the open job's state (a ``shopterm.job.state.JobState``), or None."""
+        return self.job.state if self.job is not None else None
+
+    def record(self, kind: str, payload: dict | None = None):
+        """Write one confirmed entry to the job record; return the Event, or None if refused.
+
+        The entry is committed to disk before this returns, so a screen shows it as done only
+        after it is safe. A refused entry is reported on screen and nothing else changes.
+        """
+        from shopterm.errors import ShoptermError
+        if self.job is None:
+            self.notify("Choose a thread first: a job starts with its thread.", severity="error")
+            return None
+        try:
+            event = self.job.append(kind, payload or {})
+        except ShoptermError as exc:
+            self.notify(str(exc), severity="error", timeout=10)
+            return None
+        self._after_change()
+        return event
+
+    def _after_change(self) -> None:
+        screen = self.screen
+        if hasattr(screen, "refresh_chrome"):
+            screen.refresh_chrome()
+        if self.job is not None and self.job.health:
+            self.notify(self.job.health, severity="error", timeout=15)
 
     def _apply_theme(self) -> None:
-        from shopterm.config import user_themes_dir
         from shopterm.ui.themes import apply_theme, load_themes
-        themes, problems = load_themes([user_themes_dir(), *self.config.theme_dirs])
+        themes, problems = load_themes(self.config.theme_dirs)
         for theme in themes:
             self.register_theme(theme)
         message = apply_theme(self, self.shop.theme)
@@ -94,6 +180,12 @@ class ShoptermApp(App):
     def screen_shown(self, name: str) -> None:
         """Called by a screen when it is shown (recorded so a resumed job opens there)."""
         self.current_name = name
+        if self.job is not None and not self.job.read_only and self.state.last_screen != name:
+            from shopterm.errors import ShoptermError
+            try:
+                self.job.append("screen", {"name": name})
+            except ShoptermError:
+                pass
 
     def action_menu(self) -> None:
         from shopterm.ui.screens.menu import MenuScreen
@@ -109,21 +201,89 @@ class ShoptermApp(App):
         self.push_screen(HelpScreen())
 
     def ask_undo(self) -> None:
-        self.notify("Nothing to undo yet.", timeout=3)
+        """Ask before taking back the last confirmed entry; Enter undoes it."""
+        from shopterm.ui.screens.menu import ConfirmScreen
+        target = self.job.undoable() if self.job is not None else None
+        if target is None:
+            self.notify("Nothing to undo in this job.", timeout=3)
+            return
+        screen = self.screen
+
+        def answer(yes: bool | None) -> None:
+            if not yes:
+                return
+            if self.record("undo", {"target": target.seq}) is not None:
+                self.notify(f"Undone: {target.title}.", timeout=4)
+                if hasattr(screen, "job_changed"):
+                    screen.job_changed()
+
+        self.push_screen(ConfirmScreen(f"Undo {describe_event(target)}?"), answer)
 
     # -- what the status line says -----------------------------------------------------------
     def status_text(self, title: str) -> tuple[str, bool]:
         """Return (status line text, whether entries are being saved)."""
         parts = [f"shopterm │ {title}"]
+        if self.job is not None:
+            parts.append(f"job {self.job.job_id}")
         if self.spec is not None:
             parts.append(self.spec.designation)
         parts.append(f"cfg {Path(str(self.config.path)).name}")
-        return "  ".join(parts), True
+        if self.store is None:
+            return "  ".join(parts + ["│ NOT SAVING"]), False
+        if self.job is not None and (self.job.health or self.job.read_only):
+            return "  ".join(parts + ["│ NOT SAVING"]), False
+        return "  ".join(parts + ["│ saved"]), True
 
     # -- the thread --------------------------------------------------------------------------
-    def thread_chosen(self, spec) -> None:
-        """The user chose a thread: keep it for the job and go on to the set-up."""
+    def thread_chosen(self, spec) -> bool:
+        """The user chose a thread: start a job with it, or record the change in the open one."""
+        from shopterm.errors import ShoptermError
+        payload = {"designation": spec.designation, "thread_kind": spec.kind,
+                   "tol_class": spec.tol_class or "", "starts": spec.starts, "hand": spec.hand}
+        if self.store is None:
+            self.spec = spec
+            return True
+        try:
+            if self.job is None or self.state.finished or self.state.archived:
+                self.job = self.store.new_job(spec.designation, spec.kind,
+                                              self.shop.display_units)
+                self.job.append("thread_chosen", payload)
+            elif self.state.current_designation != spec.designation or (
+                    self.state.thread and self.state.thread.values.get("starts") != spec.starts):
+                self.job.append("thread_chosen", payload)
+        except ShoptermError as exc:
+            self.notify(str(exc), severity="error", timeout=10)
+            return False
         self.spec = spec
+        return True
+
+    def new_job(self) -> None:
+        """Close the open job (it stays in the record) and start choosing a thread."""
+        self.job = None
+        self.spec = None
+        self.goto("thread")
+
+    def recent_threads(self) -> list[str]:
+        """Return the designations of recent jobs, newest first, each once."""
+        if self.store is None:
+            return []
+        seen: list[str] = []
+        for info in sorted(self.store.jobs(include_archived=True), key=lambda j: -j.id):
+            if info.designation and info.designation not in seen:
+                seen.append(info.designation)
+        return seen[:5]
+
+
+def describe_event(event) -> str:
+    """Return a short description of an entry for the undo question."""
+    p = event.payload
+    if event.kind == "pass_cut":
+        return f"pass {p.get('n')} (radial {p.get('radial_cum_mm', 0):.3f} mm in all)"
+    if event.kind == "wire_reading":
+        return f"the wire reading {p.get('typed') or p.get('measured_mm')}"
+    if event.kind == "checklist_item":
+        return f"the checklist item '{p.get('item')}'"
+    return event.title
 
 
 def run_app(config_path: str | None = None, data_dir: str | None = None) -> int:
