@@ -119,6 +119,17 @@ class ShoptermApp(App):
         self._after_change()
         return event
 
+    def setup_values(self) -> dict:
+        """Return the set-up in force: every set-up entry's values, later ones over earlier."""
+        merged: dict = {}
+        for chosen in (self.state.setups if self.state is not None else ()):
+            merged.update(chosen.values)
+        return merged
+
+    def record_setup(self, values: dict):
+        """Record a set-up entry carrying the whole set-up in force with ``values`` over it."""
+        return self.record("setup_confirmed", {**self.setup_values(), **values})
+
     def _after_change(self) -> None:
         screen = self.screen
         if hasattr(screen, "refresh_chrome"):
