@@ -352,11 +352,13 @@ class Store:
             self._conn.execute("ROLLBACK")
             raise
 
-    def close(self) -> None:
-        """Write what is pending if possible, then close the database and release the lock."""
+    def close(self) -> bool:
+        """Return True if nothing was left unwritten, after writing what is pending if possible,
+        closing the database and releasing the lock."""
+        all_written = True
         if self._conn is not None:
             if self._pending and not self.read_only:
-                self.retry()
+                all_written = self.retry()
             try:
                 self._conn.close()
             except Exception:
@@ -368,6 +370,7 @@ class Store:
             finally:
                 os.close(self._lock_fd)
                 self._lock_fd = None
+        return all_written and not self._pending
 
     def __enter__(self) -> "Store":
         return self
@@ -385,6 +388,9 @@ class Store:
     @property
     def health(self) -> str | None:
         """Return None while every entry is saved, else the warning to show until fixed."""
+        if self.read_only:
+            return ("Read-only: another shopterm has this record open, so entries here are NOT "
+                    "saved. Close the other one and start this one again.")
         if self._fault is None:
             return None
         n = len(self._pending)

@@ -164,7 +164,7 @@ def test_new_job_while_the_disk_is_full_is_written_later(tmp_path):
     job.append("pass_cut", {"radial_cum_mm": 0.05})
     assert [j.id for j in store.jobs()] == [job.job_id]   # listed from memory meanwhile
     conn.error = None
-    store.close()                                          # close writes what is pending
+    assert store.close()                                   # close writes what is pending
     with Store.open(tmp_path) as s:
         assert fold(s.events(job.job_id)) == job.state
         assert s.jobs()[0].units == "in"
@@ -176,6 +176,7 @@ def test_second_copy_is_told_and_opens_read_only(tmp_path):
     job.append("pass_cut", {"radial_cum_mm": 0.1})
     second = Store.open(tmp_path)
     assert second.read_only and "Another shopterm" in second.message
+    assert "NOT saved" in second.health and first.health is None
     assert second.open_job(job.job_id).state == job.state    # it can look
     with pytest.raises(StoreError, match="read-only"):
         second.open_job(job.job_id).append("note", {"text": "x"})
