@@ -325,7 +325,8 @@ def measure(limits: Limits, wire: float, readings: Sequence[float], *,
             headline = (f"In the band: stop. {f(pd - pd_min)} above the bottom, "
                         f"{f(max(pd_max - pd, 0.0))} below the top.")
         else:
-            headline = "At the basic pitch diameter: stop."
+            side = "over" if pd >= pd_max else "under"
+            headline = f"At the basic pitch diameter ({f(abs(pd - pd_max))} {side}): stop."
         detail = ("A spring pass at the same setting may take a little more: measure again "
                   "after it.")
     else:
