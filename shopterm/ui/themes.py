@@ -159,6 +159,7 @@ def apply_theme(app: App, name: str, fallback: str = DEFAULT_THEME,
                 themes: Iterable[Theme] | None = None) -> str | None:
     """Return None after switching ``app`` to theme ``name``, or a message saying what went wrong.
 
+    ``name`` "auto" picks by terminal (``theme_for_terminal``).
     Registers ``themes`` (default: ``load_themes()``, whose problems join the message) and sets
     ``app.theme``. An unknown name falls back to ``fallback`` (and, if that is missing too, to
     Textual's ``textual-light``); the message names the theme used instead. An ANSI theme
@@ -166,6 +167,7 @@ def apply_theme(app: App, name: str, fallback: str = DEFAULT_THEME,
     (``use_console_glyphs``); add ``CONSOLE_CSS`` to the app's CSS for the borders.
     """
     problems: list[str] = []
+    name = theme_for_terminal(name)
     if themes is None:
         themes, problems = load_themes()
     for theme in themes:

@@ -76,6 +76,23 @@ def test_bundled_files_are_found():
     assert (bundled_themes_dir() / "shop-bright.toml").is_file()
 
 
+def test_bundled_files_found_inside_an_installed_package(tmp_path):
+    """The wheel layout: themes/ and sample_config.toml inside the shopterm package."""
+    import shutil
+    pkg = tmp_path / "site" / "shopterm"
+    pkg.mkdir(parents=True)
+    src = Path(cfg.__file__).parent
+    for name in ("__init__.py", "resources.py"):
+        shutil.copy(src / name, pkg / name)
+    shutil.copytree(bundled_themes_dir(), pkg / "themes")
+    shutil.copy(sample_config_path(), pkg / "sample_config.toml")
+    code = ("import shopterm.resources as r; "
+            "print(r.bundled_themes_dir()); print(r.sample_config_path())")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True,
+                         env={"PYTHONPATH": str(tmp_path / "site")}, cwd=tmp_path)
+    assert out.stdout.split() == [str(pkg / "themes"), str(pkg / "sample_config.toml")]
+
+
 def test_config_module_does_not_import_textual():
     code = "import sys, shopterm.config; print('textual' in sys.modules or 'rich' in sys.modules)"
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)

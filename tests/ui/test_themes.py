@@ -191,12 +191,14 @@ async def test_broken_chosen_theme_falls_back_with_message(tmp_path):
         assert "garage.toml" in app.message and "using 'shop-bright'" in app.message
 
 
-async def test_apply_theme_loads_by_itself_and_reports_unknown_name():
+async def test_apply_theme_loads_by_itself_and_reports_unknown_name(monkeypatch):
     app = TinyApp("shop-bright")
     async with app.run_test(size=(80, 24)):
         msg = apply_theme(app, "no-such-theme")
         assert app.theme == DEFAULT_THEME and "no-such-theme" in msg
         assert apply_theme(app, "shop-console") is None and app.theme == "shop-console"
+        monkeypatch.setenv("TERM", "linux")
+        assert apply_theme(app, "auto") is None and app.theme == CONSOLE_THEME
         msg = apply_theme(app, "nope", fallback="also-missing", themes=[])
         assert app.theme == "textual-light" and "using 'textual-light'" in msg
 
