@@ -133,6 +133,11 @@ def tool_depth(limits: Limits, turned_diameter: float, tip: ToolTip,
     if not internal and turned_diameter <= aim:
         raise InvalidEntry(f"The blank ({turned_diameter:.3f} mm) is not larger than the pitch "
                            f"diameter aimed at ({aim:.3f} mm): check the entry or the thread.")
+    if (not internal and turned_diameter > 1.5 * limits.basic_major) or (
+            internal and turned_diameter < 0.5 * limits.basic_minor):
+        raise InvalidEntry(f"The {what} ({turned_diameter:.3f} mm) is far from this thread's "
+                           f"size (major {limits.basic_major:.3f} mm): check the number and its "
+                           "unit (add mm or in).")
     t = tip_beyond_pitch_line(tip, spec.pitch, spec.form.angle_deg)
     if internal:
         total = (aim - turned_diameter) / 2 + t

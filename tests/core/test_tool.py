@@ -87,6 +87,7 @@ def test_internal_feeds_outward():
     (8.0, ToolTip("radius", 0.2), "not larger than the pitch diameter"),
     (0.0, ToolTip("radius", 0.2), "greater than 0"),
     (10.0, ToolTip("flat", 0.8), "too big"),
+    (254.0, ToolTip("radius", 0.2), "check the number and its unit"),  # 10 in typed for 10 mm
 ])
 def test_tool_depth_errors(od, tip, msg):
     with pytest.raises(InvalidEntry, match=msg):
