@@ -510,7 +510,7 @@ def _gears(r: _Reader, t: dict | None) -> tuple[tuple[int, int], ...]:
                               f"is teeth = how many, e.g. 40 = 2.")
         teeth = int(key)
         if teeth == 0:
-            raise r.error(kw, "a gear with 0 teeth cannot be. Write the teeth of the gear, "
+            raise r.error(kw, "a gear cannot have 0 teeth. Write its number of teeth as the key, "
                               "e.g. 40 = 2.")
         if isinstance(count, bool) or not isinstance(count, int):
             raise r.error(kw, f"how many {teeth}-tooth gears you own must be a whole number "
