@@ -479,7 +479,7 @@ def check_tool(limits: Limits, tip: ToolTip, aim_pd: float | None = None,
         fails.append(f"The {where} fouls {mate_text} by {interference:.3f} mm (on radius) "
                      f"before the thread is cut.{fix}")
     else:
-        goods.append(f"The root clears {mate_text} by {-worst:.3f} mm.")
+        goods.append(f"The root clears {mate_text} by {max(-worst, 0.0):.3f} mm.")
     picture = _picture(ext, nut, "internal" if internal else "external", aim / 2)
     messages = tuple(["Fails: " + m for m in fails] + ["Warning: " + m for m in warns]
                      + ["OK: " + m for m in goods])
