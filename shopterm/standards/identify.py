@@ -1,0 +1,687 @@
+"""What thread is this? Rank the catalogue's threads against what a person measured at the bench.
+
+Measurements (all optional, at least one):
+
+- the crest diameter with calipers: the major diameter of a bolt, the minor diameter of a nut;
+  also, where measured, the root diameter (a bolt's minor, a nut's major);
+- the pitch: from a thread gauge in mm or in tpi, or by counting over a measured length. Both
+  mm and tpi may be given; they are cross-checked (a 1.27 mm pitch is 20 tpi) and combined;
+- the included flank angle from a gauge (60, 55 or 47.5);
+- readings over wires of a bolt (wire size and reading), each giving a pitch diameter for every
+  candidate through the three-wire relation; two wire sizes together test the flank angle.
+
+Counting threads over a length. ``counted="crests"`` (the default): the count includes the
+crest at each end of the measured length, so ``n`` crests span ``n − 1`` pitches and
+pitch = length / (count − 1). ``counted="spaces"``: the count is of the spaces (whole pitches)
+between the first and last crest, so pitch = length / count.
+
+Scoring. Each measurement is compared with the range the candidate's standard allows, giving a
+signed distance in units of how far such a measurement may plausibly stray (``z``); the score is
+exp(−½ Σ z²): 1 when every measurement lies where this thread puts it, falling towards 0 as
+they disagree. The pitch is trusted more than a diameter. Worn crests are normal: a bolt's major
+diameter may be well under its class minimum (crest wear, generous allowance below) but rarely
+over its maximum; a nut's minor diameter wears larger. Rivals scoring at least
+``AMBIGUOUS_RATIO`` of the top score make the answer ambiguous, and ``to_tell_apart`` names the
+measurement that separates them with the expected value for each.
+
+The uncertainties below are shop judgement (marked so), not values from a standard.
+
+References: basic sizes and limits from the family modules (ISO 261/965, ASME B1.1, BS 84,
+BS 93); three-wire relation M = E + W(1 + cosec a) − (P/2)·cot a, NBS Handbook H28, through
+``shopterm.cutting.wires``; 1 in = 25.4 mm exactly.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Iterable, Literal, Sequence
+
+from shopterm.errors import InvalidEntry
+from shopterm.standards.forms import ThreadForm
+from shopterm.standards.spec import Kind, Limits, ThreadSpec
+from shopterm.units import MM_PER_INCH
+
+Counted = Literal["crests", "spaces"]
+COUNTED: tuple[Counted, ...] = ("crests", "spaces")
+
+# ---- how far each kind of measurement may plausibly stray (shop judgement) -------------------
+
+#: A thread-gauge leaf that sits right: relative pitch uncertainty. Common practice, no source
+#: (a leaf 1.6 % off shows light over a dozen threads).
+GAUGE_REL = 0.005
+#: Reading a length crest to crest with calipers or a rule [mm]. Common practice, no source.
+LENGTH_UNCERTAINTY = 0.1
+#: Calipers on a crest diameter [mm]: how far over the class maximum a reading may go.
+#: Common practice, no source.
+CALIPER = 0.03
+#: Crest wear allowed beyond the class limit [mm] = CREST_WEAR_BASE + CREST_WEAR_PER_P · P.
+#: Common practice, no source.
+CREST_WEAR_BASE = 0.05
+CREST_WEAR_PER_P = 0.10
+#: Root diameters are hard to reach with calipers: ± ROOT_BASE + ROOT_PER_P · P [mm].
+#: Common practice, no source.
+ROOT_BASE = 0.05
+ROOT_PER_P = 0.05
+#: Width assumed for a crest-diameter range the catalogue gives none for (basic-size threads),
+#: over P. Common practice, no source: about what ISO 6g and Unified 2A give (0.15–0.16 P).
+ASSUMED_CREST_BAND = 0.15
+#: Width assumed for a pitch-diameter band of zero width, over P. Common practice, no source:
+#: about ISO 6g / Unified 2A Td2 (0.07–0.09 P).
+ASSUMED_PD_BAND = 0.08
+#: A flank-angle gauge reading [deg]. Common practice, no source.
+ANGLE_SIGMA = 1.5
+#: Pitch diameter from wires: flank wear below the band, and micrometer error either side [mm].
+#: Common practice, no source.
+PD_WEAR_BASE = 0.02
+PD_WEAR_PER_P = 0.03
+PD_OVER = 0.02
+#: Two wire sizes on the right form give the same pitch diameter within this [mm].
+#: Common practice, no source (two micrometer readings of ±0.005 mm and seating).
+WIRE_AGREEMENT = 0.015
+#: A rival scoring at least this share of the top score makes the answer ambiguous.
+AMBIGUOUS_RATIO = 0.25
+#: Candidates scoring below this are not listed.
+MIN_SCORE = 1e-4
+#: A pitch check over a count should differ by at least this much to be read with calipers [mm].
+#: Common practice, no source.
+READABLE_DIFFERENCE = 0.5
+
+
+# ---- what was measured ------------------------------------------------------------------------
+
+def pitch_from_count(count: int, length: float, counted: Counted = "crests") -> float:
+    """Return the pitch [mm] from a count of threads over a measured length.
+
+    count: crests counted including both ends (``counted="crests"``: pitch = length/(count − 1))
+    or spaces between them (``counted="spaces"``: pitch = length/count); length [mm] from the
+    first to the last crest counted.
+    References: definition of pitch (ISO 5408: axial distance between corresponding points on
+    adjacent threads).
+    """
+    if counted not in COUNTED:
+        raise InvalidEntry(f"Say what was counted: crests or spaces, not {counted!r}.")
+    if isinstance(count, bool) or not isinstance(count, int):
+        raise InvalidEntry("The count must be a whole number of threads.")
+    _check_length(length, "length counted over")
+    pitches = count - 1 if counted == "crests" else count
+    if pitches < 1:
+        raise InvalidEntry("Count at least 2 crests (or 1 space) over the length: "
+                           "10 or more gives a good pitch.")
+    return float(length) / pitches
+
+
+@dataclass(frozen=True)
+class PitchEntry:
+    """One measured pitch and how far it may stray [mm]."""
+
+    pitch: float
+    sigma: float
+    how: str                  # e.g. "gauge 1.5 mm", "gauge 20 tpi", "11 crests over 12.7 mm"
+
+    @property
+    def tpi(self) -> float:
+        """Return the pitch as threads per inch."""
+        return MM_PER_INCH / self.pitch
+
+
+@dataclass(frozen=True)
+class WireEntry:
+    """One reading over three wires of a bolt [mm]."""
+
+    wire: float
+    over_wires: float
+
+
+@dataclass(frozen=True)
+class Measured:
+    """Everything measured, checked; lengths in mm, angle in degrees."""
+
+    kind: Kind
+    major: float | None
+    minor: float | None
+    pitch: PitchEntry | None         # all pitch entries combined
+    pitch_entries: tuple[PitchEntry, ...]
+    angle: float | None
+    wires: tuple[WireEntry, ...]
+
+    @property
+    def crest(self) -> float | None:
+        """Return the crest diameter measured: a bolt's major, a nut's minor [mm]."""
+        return self.major if self.kind == "external" else self.minor
+
+    @property
+    def root(self) -> float | None:
+        """Return the root diameter measured: a bolt's minor, a nut's major [mm]."""
+        return self.minor if self.kind == "external" else self.major
+
+
+def _check_length(value, what: str) -> float:
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
+        raise InvalidEntry(f"The {what} must be a number in mm.")
+    if value <= 0:
+        raise InvalidEntry(f"The {what} must be greater than zero.")
+    return float(value)
+
+
+def _mm(v: float) -> str:
+    """Return a length in mm written short: 9.96, 10, 6.35, 1.588."""
+    text = f"{v:.3f}".rstrip("0").rstrip(".")
+    return "0" if text in ("-0", "") else text
+
+
+def _tpi_text(tpi: float) -> str:
+    return f"{tpi:.2f}".rstrip("0").rstrip(".")
+
+
+def measured(*, major: float | None = None, minor: float | None = None,
+             pitch: float | None = None, tpi: float | None = None,
+             count: int | None = None, length: float | None = None,
+             counted: Counted = "crests", angle: float | None = None,
+             wires: Iterable[tuple[float, float]] = (), kind: Kind | None = None,
+             length_uncertainty: float = LENGTH_UNCERTAINTY) -> Measured:
+    """Return the measurements checked and the pitch entries cross-compared and combined.
+
+    major, minor [mm] (calipers); pitch [mm] and/or tpi [1/in] from a gauge; count with
+    length [mm] (see ``pitch_from_count``); angle [deg] included flank angle; wires: pairs of
+    (wire diameter [mm], reading over wires [mm]) on a bolt; kind: 'external' or 'internal'
+    (default: external when a major diameter is given, internal when only a minor);
+    length_uncertainty [mm]: how well the counted length was read.
+    Raises ``InvalidEntry`` saying what to enter instead.
+    References: this module's docstring; 1 in = 25.4 mm.
+    """
+    if major is not None:
+        major = _check_length(major, "major diameter")
+    if minor is not None:
+        minor = _check_length(minor, "minor diameter")
+    if kind is None:
+        kind = "internal" if (major is None and minor is not None) else "external"
+    if kind not in ("external", "internal"):
+        raise InvalidEntry(f"{kind!r} is not a kind of thread: use external or internal.")
+    if major is not None and minor is not None and minor >= major:
+        raise InvalidEntry(f"The minor diameter {_mm(minor)} must be smaller than the major "
+                           f"{_mm(major)}: check which is which.")
+    entries: list[PitchEntry] = []
+    if pitch is not None:
+        p = _check_length(pitch, "pitch")
+        entries.append(PitchEntry(p, GAUGE_REL * p, f"gauge {_mm(p)} mm"))
+    if tpi is not None:
+        n = _check_length(tpi, "number of threads per inch")
+        p = MM_PER_INCH / n
+        entries.append(PitchEntry(p, GAUGE_REL * p, f"gauge {_tpi_text(n)} tpi"))
+    if (count is None) != (length is None):
+        raise InvalidEntry("Give both the count of threads and the length they span, "
+                           "or neither.")
+    if count is not None:
+        sigma_len = _check_length(length_uncertainty, "length uncertainty")
+        p = pitch_from_count(count, length, counted)
+        pitches = count - 1 if counted == "crests" else count
+        entries.append(PitchEntry(p, sigma_len / pitches,
+                                  f"{count} {counted} over {_mm(length)} mm"))
+    for i, a in enumerate(entries):
+        for b in entries[i + 1:]:
+            if abs(a.pitch - b.pitch) > 3 * math.hypot(a.sigma, b.sigma):
+                raise InvalidEntry(
+                    f"The pitch entries disagree: {a.how} is {_mm(a.pitch)} mm "
+                    f"({_tpi_text(a.tpi)} tpi) but {b.how} is {_mm(b.pitch)} mm "
+                    f"({_tpi_text(b.tpi)} tpi). Check them and enter the one you trust.")
+    combined = None
+    if entries:
+        w = [1 / e.sigma ** 2 for e in entries]
+        p = math.fsum(wi * e.pitch for wi, e in zip(w, entries)) / math.fsum(w)
+        combined = PitchEntry(p, 1 / math.sqrt(math.fsum(w)),
+                              " and ".join(e.how for e in entries))
+    if angle is not None:
+        if isinstance(angle, bool) or not isinstance(angle, (int, float)) \
+                or not math.isfinite(angle) or not 20 <= angle <= 90:
+            raise InvalidEntry("The flank angle is the included angle from a gauge, between 20 "
+                               "and 90 degrees: 60 (metric, Unified), 55 (Whitworth form) or "
+                               "47.5 (BA).")
+        angle = float(angle)
+    wire_list: list[WireEntry] = []
+    for pair in wires:
+        try:
+            w_d, reading = pair
+        except (TypeError, ValueError):
+            raise InvalidEntry("Give each reading over wires with its wire size.") from None
+        wire_list.append(WireEntry(_check_length(w_d, "wire size"),
+                                   _check_length(reading, "reading over wires")))
+    if wire_list and kind == "internal":
+        raise InvalidEntry("Wires measure a bolt, not a nut: for a nut, measure a bolt that "
+                           "fits it well, or leave the wire readings out.")
+    if major is None and minor is None and combined is None and not wire_list:
+        raise InvalidEntry("Measure something first: the major diameter of a bolt or the minor "
+                           "diameter of a nut with calipers, and the pitch with a gauge or by "
+                           "counting threads over a length.")
+    return Measured(kind, major, minor, combined, tuple(entries), angle, tuple(wire_list))
+
+
+# ---- candidates -------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class Check:
+    """One measurement against one candidate: signed distance ``z`` and what it says."""
+
+    what: str          # "pitch", "angle", "major", "minor", "wires", "form"
+    z: float
+    text: str
+
+
+@dataclass(frozen=True)
+class Candidate:
+    """One catalogue thread the part could be, with its score and the reasons."""
+
+    spec: ThreadSpec            # external or internal as measured, in the usual class
+    designation: str            # without a class, e.g. "M10x1.5", "1/4-20 UNC", "1/4 BSW"
+    score: float                # 0..1, 1 = every measurement where this thread puts it
+    why: str
+    checks: tuple[Check, ...]
+
+
+@dataclass(frozen=True)
+class Expected:
+    """What a telling measurement should read on one candidate [mm] (low == high when exact)."""
+
+    designation: str
+    quantity: str
+    low: float
+    high: float
+
+
+@dataclass(frozen=True)
+class TellApart:
+    """A measurement that separates two candidates, with what each would give."""
+
+    between: tuple[str, str]
+    measure: str               # "pitch", "gauge", "wires", "two wires", "diameter"
+    how: str
+    expected: tuple[Expected, ...]
+
+
+@dataclass(frozen=True)
+class Identification:
+    """Ranked candidates for what was measured, and how to tell the close ones apart."""
+
+    measured: Measured
+    candidates: tuple[Candidate, ...]
+    ambiguous: bool
+    to_tell_apart: tuple[TellApart, ...]
+    note: str
+
+
+def _plain(spec: ThreadSpec) -> str:
+    return spec.with_(tol_class=None, pitch_implied=False, kind="external").designation
+
+
+def _internal(spec: ThreadSpec) -> ThreadSpec:
+    """Return the nut matching a catalogue bolt, in the family's usual internal class."""
+    from shopterm.standards import classes
+    base = spec.with_(kind="internal", tol_class=None)
+    offered = classes(base)
+    cls = spec.tol_class or ""
+    for want in ("6H" if spec.family == "iso" else None,
+                 cls.replace("A", "B") if spec.family == "unified" else None,
+                 cls if cls in offered else None):
+        if want and want in offered:
+            return base.with_(tol_class=want)
+    return base
+
+
+@lru_cache(maxsize=2048)
+def _limits(spec: ThreadSpec, kind: Kind) -> Limits:
+    from shopterm.standards import limits
+    return limits(spec if kind == "external" else _internal(spec))
+
+
+def _band_z(value: float, lo: float, hi: float, below: float, above: float) -> float:
+    """Return the signed distance of ``value`` outside [lo, hi] in units of below/above."""
+    if value < lo:
+        return (value - lo) / below
+    if value > hi:
+        return (value - hi) / above
+    return 0.0
+
+
+def _words(z: float) -> str:
+    a = abs(z)
+    return "normal crest wear" if a < 1 else ("more wear than usual" if a < 2
+                                              else "more than wear alone explains")
+
+
+def _class_name(lim: Limits) -> str:
+    return lim.spec.tol_class or "usual"
+
+
+def _crest_check(m: Measured, spec: ThreadSpec, lim: Limits) -> Check | None:
+    value = m.crest
+    if value is None:
+        return None
+    p = spec.pitch
+    wear = CREST_WEAR_BASE + CREST_WEAR_PER_P * p
+    if m.kind == "external":
+        what, basic = "major", lim.basic_major
+        hi = lim.major_max if lim.major_max is not None else basic
+        lo = lim.major_min if lim.major_min is not None else hi - ASSUMED_CREST_BAND * p
+        if hi - lo < 1e-9:
+            lo = hi - ASSUMED_CREST_BAND * p
+        z = _band_z(value, lo, hi, wear, CALIPER)
+        diff = value - basic
+        side = (f"{_mm(-diff)} under" if diff < 0 else f"{_mm(diff)} over")
+        head = f"major {_mm(value)} is {side} {_mm(basic)}"
+        if abs(diff) < 5e-4:
+            head = f"major {_mm(value)} is the basic {_mm(basic)}"
+        if z < 0:
+            text = f"{head}, {_mm(lo - value)} below the {_class_name(lim)} minimum — {_words(z)}"
+        elif z > 0:
+            text = f"{head}, {_mm(value - hi)} over the maximum — a worn bolt is rarely larger"
+        else:
+            text = f"{head} — within the {_class_name(lim)} range" + (
+                ", normal crest wear" if diff < -5e-4 else "")
+    else:
+        what, basic = "minor", lim.basic_minor
+        lo = lim.minor_min if lim.minor_min is not None else basic
+        hi = lim.minor_max if lim.minor_max is not None else lo + ASSUMED_CREST_BAND * p
+        z = _band_z(value, lo, hi, CALIPER, wear)
+        diff = value - basic
+        side = (f"{_mm(-diff)} under" if diff < 0 else f"{_mm(diff)} over")
+        head = f"nut minor {_mm(value)} is {side} the basic {_mm(basic)}"
+        if z > 0:
+            text = (f"{head}, {_mm(value - hi)} over the {_class_name(lim)} maximum — "
+                    f"{_words(z).replace('crest wear', 'wear of the nut')}")
+        elif z < 0:
+            text = f"{head}, {_mm(lo - value)} under the minimum — a worn nut is rarely smaller"
+        else:
+            text = f"{head} — within the {_class_name(lim)} range"
+    return Check(what, z, text)
+
+
+def _root_check(m: Measured, spec: ThreadSpec, lim: Limits) -> Check | None:
+    value = m.root
+    if value is None:
+        return None
+    p = spec.pitch
+    sigma = ROOT_BASE + ROOT_PER_P * p
+    if m.kind == "external":
+        what = "minor"
+        hi = lim.minor_max if lim.minor_max is not None else lim.basic_minor
+        lo = lim.minor_min if lim.minor_min is not None else hi - ASSUMED_CREST_BAND * p
+        name = "root (minor)"
+    else:
+        what = "major"
+        lo = lim.major_min if lim.major_min is not None else lim.basic_major
+        hi = lim.major_max if lim.major_max is not None else lo + ASSUMED_CREST_BAND * p
+        name = "nut root (major)"
+    z = _band_z(value, lo, hi, sigma, sigma)
+    where = ("within its range" if z == 0 else
+             f"{_mm(abs(value - (lo if z < 0 else hi)))} {'under' if z < 0 else 'over'} its range")
+    return Check(what, z, f"{name} {_mm(value)} is {where} {_mm(lo)}–{_mm(hi)}")
+
+
+def _pitch_check(m: Measured, spec: ThreadSpec) -> Check | None:
+    if m.pitch is None:
+        return None
+    z = (m.pitch.pitch - spec.pitch) / m.pitch.sigma
+    own = f"{_mm(spec.pitch)} mm" + (f" ({_tpi_text(spec.tpi)} tpi)" if spec.tpi else "")
+    d = abs(m.pitch.pitch - spec.pitch)
+    if d < 5e-4:
+        text = f"pitch matches {own} exactly"
+    elif abs(z) < 1:
+        text = f"pitch {_mm(m.pitch.pitch)} mm matches {own} within the measurement"
+    else:
+        text = (f"pitch {_mm(m.pitch.pitch)} mm ({_tpi_text(m.pitch.tpi)} tpi) is "
+                f"{_mm(d)} mm off {own}")
+    return Check("pitch", z, text)
+
+
+def _angle_check(m: Measured, spec: ThreadSpec) -> Check | None:
+    if m.angle is None:
+        return None
+    own = spec.form.angle_deg
+    z = (m.angle - own) / ANGLE_SIGMA
+    text = (f"{own:g}° form as gauged" if abs(z) < 1 else
+            f"gauged {m.angle:g}° but this thread is a {own:g}° form")
+    return Check("angle", z, text)
+
+
+def _wire_pd(reading: WireEntry, spec: ThreadSpec) -> float | None:
+    # The three-wire relation lives with the cutting layer; it is geometry of the form only.
+    from shopterm.cutting.wires import pitch_diameter
+    try:
+        return pitch_diameter(reading.over_wires, reading.wire, spec.form, spec.pitch,
+                              spec.lead, method="h28")
+    except InvalidEntry:
+        return None
+
+
+def _wire_checks(m: Measured, spec: ThreadSpec, lim: Limits) -> list[Check]:
+    if not m.wires:
+        return []
+    p = spec.pitch
+    hi = lim.pd_max
+    lo = lim.pd_min if lim.pd_max - lim.pd_min > 1e-9 else hi - ASSUMED_PD_BAND * p
+    out: list[Check] = []
+    pds: list[tuple[WireEntry, float]] = []
+    for r in m.wires:
+        e = _wire_pd(r, spec)
+        if e is None:
+            out.append(Check("wires", -10.0, f"{_mm(r.over_wires)} over {_mm(r.wire)} wires is "
+                                             "too small a reading for this thread"))
+            continue
+        pds.append((r, e))
+        z = _band_z(e, lo, hi, PD_WEAR_BASE + PD_WEAR_PER_P * p, PD_OVER)
+        where = ("within its band" if z == 0 else
+                 f"{_mm(abs(e - (lo if z < 0 else hi)))} {'under' if z < 0 else 'over'} its band")
+        out.append(Check("wires", z, f"over {_mm(r.wire)} wires the pitch diameter is {_mm(e)}, "
+                                     f"{where} {_mm(lo)}–{_mm(hi)}"))
+    if len(pds) >= 2:
+        (r1, e1), (r2, e2) = min(pds, key=lambda t: t[0].wire), max(pds, key=lambda t: t[0].wire)
+        if r2.wire - r1.wire > 0.05 * p:
+            z = (e2 - e1) / WIRE_AGREEMENT
+            text = (f"the two wire sizes agree on the pitch diameter ({_mm(e1)}, {_mm(e2)}): "
+                    f"the {spec.form.angle_deg:g}° form fits" if abs(z) < 1 else
+                    f"the two wire sizes give pitch diameters {_mm(e1)} and {_mm(e2)}: "
+                    f"not a {spec.form.angle_deg:g}° form")
+            out.append(Check("form", z, text))
+    return out
+
+
+def _prefilter(m: Measured, spec: ThreadSpec) -> bool:
+    """Return whether ``spec`` is worth scoring in full (cheap test on basic sizes)."""
+    if m.pitch is not None and abs(m.pitch.pitch - spec.pitch) > 8 * m.pitch.sigma \
+            + 0.02 * spec.pitch:
+        return False
+    if m.crest is not None:
+        basic = spec.major if m.kind == "external" else spec.major - spec.form.minor_offset * \
+            spec.pitch
+        if abs(m.crest - basic) > 0.3 * basic + 1.0:
+            return False
+    return True
+
+
+def _evaluate(m: Measured, spec: ThreadSpec) -> Candidate:
+    lim = _limits(spec, m.kind)
+    checks = [c for c in (_pitch_check(m, spec), _angle_check(m, spec),
+                          _crest_check(m, spec, lim), _root_check(m, spec, lim)) if c is not None]
+    checks.extend(_wire_checks(m, spec, lim))
+    score = math.exp(-0.5 * math.fsum(c.z ** 2 for c in checks))
+    why = "; ".join(c.text for c in checks)
+    return Candidate(lim.spec, _plain(spec), score, why, tuple(checks))
+
+
+def identify(*, major: float | None = None, minor: float | None = None,
+             pitch: float | None = None, tpi: float | None = None,
+             count: int | None = None, length: float | None = None,
+             counted: Counted = "crests", angle: float | None = None,
+             wires: Iterable[tuple[float, float]] = (), kind: Kind | None = None,
+             length_uncertainty: float = LENGTH_UNCERTAINTY, limit: int = 8,
+             threads: Sequence[ThreadSpec] | None = None) -> Identification:
+    """Return the catalogue threads ranked against the measurements, and how to tell them apart.
+
+    Parameters as ``measured`` (major, minor, length [mm]; pitch [mm]; tpi [1/in]; angle [deg];
+    wires: (wire [mm], reading [mm]) pairs); limit: most candidates listed; threads: the threads
+    to rank (default: the whole catalogue).
+    References: this module's docstring; limits from the family modules.
+    """
+    m = measured(major=major, minor=minor, pitch=pitch, tpi=tpi, count=count, length=length,
+                 counted=counted, angle=angle, wires=wires, kind=kind,
+                 length_uncertainty=length_uncertainty)
+    return identify_measured(m, limit=limit, threads=threads)
+
+
+def identify_measured(m: Measured, *, limit: int = 8,
+                      threads: Sequence[ThreadSpec] | None = None) -> Identification:
+    """Return the ranked candidates for checked measurements ``m`` (see ``identify``).
+
+    References: this module's docstring.
+    """
+    if isinstance(limit, bool) or not isinstance(limit, int) or limit < 1:
+        raise InvalidEntry("Ask for at least one candidate.")
+    if threads is None:
+        from shopterm.standards import catalogue
+        threads = catalogue()
+    ranked = sorted(((_evaluate(m, s), i) for i, s in enumerate(threads) if _prefilter(m, s)),
+                    key=lambda t: (-t[0].score, t[1]))
+    scored = [c for c, _ in ranked]
+    listed = [c for c in scored if c.score >= MIN_SCORE][:limit]
+    note = ""
+    if not listed:
+        listed = scored[:3]
+        note = ("Nothing in the catalogue fits these measurements well: check them (mm or "
+                "inch?), or cut it as a special thread.")
+    elif listed[0].score < 0.05:
+        note = ("The best fit is poor: check the measurements, or the thread may be a special "
+                "or worn beyond the usual.")
+    top = listed[0]
+    rivals = [c for c in listed[1:] if c.score >= AMBIGUOUS_RATIO * top.score]
+    close = [top] + rivals[:3]
+    tell: list[TellApart] = []
+    for i, a in enumerate(close):
+        for b in close[i + 1:]:
+            tell.extend(tell_apart(a, b, m))
+    return Identification(m, tuple(listed), bool(rivals), tuple(tell), note)
+
+
+# ---- telling two candidates apart -------------------------------------------------------------
+
+def pitch_check_count(pitch_a: float, pitch_b: float) -> int:
+    """Return how many pitches to measure over so two pitches [mm] differ readably.
+
+    At least 10, rounded up to a multiple of 5, so the two lengths differ by at least
+    READABLE_DIFFERENCE (common practice, no source).
+    References: none (arithmetic).
+    """
+    d = abs(pitch_a - pitch_b)
+    if d <= 0:
+        raise InvalidEntry("The two pitches are the same: a pitch check cannot tell them apart.")
+    n = max(10, math.ceil(READABLE_DIFFERENCE / d - 1e-9))
+    return int(5 * math.ceil(n / 5))
+
+
+def _pd_band(lim: Limits) -> tuple[float, float]:
+    hi = lim.pd_max
+    lo = lim.pd_min if lim.pd_max - lim.pd_min > 1e-9 else hi - ASSUMED_PD_BAND * lim.spec.pitch
+    return lo, hi
+
+
+def _two_wires(fa: ThreadForm, fb: ThreadForm, pitch: float) -> tuple[float, float]:
+    """Return a small and a large wire [mm] that both forms' flanks take at ``pitch``."""
+    from shopterm.cutting.wires import wire_range
+    ra, rb = wire_range(fa, pitch), wire_range(fb, pitch)
+    small = max(ra.smallest, rb.smallest) * 1.1
+    large = min(ra.largest, rb.largest) * 0.95
+    return round(small, 2), math.floor(large * 100) / 100
+
+
+def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
+    """Return the measurements that separate candidates ``a`` and ``b``, cheapest first.
+
+    m: what was measured already (its wire size, if any, is used for the wire readings).
+    References: pitch arithmetic; three-wire relation (NBS H28) through ``shopterm.cutting.wires``.
+    """
+    out: list[TellApart] = []
+    sa, sb = a.spec, b.spec
+    pair = (a.designation, b.designation)
+    if abs(sa.pitch - sb.pitch) > 1e-9:
+        n = pitch_check_count(sa.pitch, sb.pitch)
+        la, lb = n * sa.pitch, n * sb.pitch
+        out.append(TellApart(
+            pair, "pitch",
+            f"measure over {n} pitches ({n + 1} crests, first to last): {a.designation} "
+            f"{la:.2f} mm, {b.designation} {lb:.2f} mm; or try a "
+            f"{_pitch_name(sa)} and a {_pitch_name(sb)} gauge leaf",
+            (Expected(a.designation, f"length of {n} pitches", la, la),
+             Expected(b.designation, f"length of {n} pitches", lb, lb))))
+    if sa.form.angle_deg != sb.form.angle_deg:
+        ga, gb = sa.form.angle_deg, sb.form.angle_deg
+        out.append(TellApart(
+            pair, "gauge",
+            f"hold a {ga:g}° and a {gb:g}° gauge leaf (or centre gauge) in the thread against "
+            f"the light: {a.designation} is {ga:g}°, {b.designation} {gb:g}°",
+            (Expected(a.designation, "included angle [deg]", ga, ga),
+             Expected(b.designation, "included angle [deg]", gb, gb))))
+        if m.kind == "external" and abs(sa.pitch - sb.pitch) < 0.02 * sa.pitch:
+            out.extend(_wire_tell(a, b, m))
+    if abs(sa.pitch - sb.pitch) <= 1e-9 and sa.form.angle_deg == sb.form.angle_deg:
+        la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
+        if m.kind == "external":
+            ra, rb = (la.major_min, la.major_max), (lb.major_min, lb.major_max)
+            q = "major diameter"
+        else:
+            ra, rb = (la.minor_min, la.minor_max), (lb.minor_min, lb.minor_max)
+            q = "minor diameter"
+        ra = tuple(v if v is not None else (la.basic_major if m.kind == "external"
+                                            else la.basic_minor) for v in ra)
+        rb = tuple(v if v is not None else (lb.basic_major if m.kind == "external"
+                                            else lb.basic_minor) for v in rb)
+        out.append(TellApart(
+            pair, "diameter",
+            f"measure the {q} with a micrometer where the thread is least worn (near the "
+            f"shoulder or the nut face): {a.designation} {_mm(ra[0])}–{_mm(ra[1])} mm, "
+            f"{b.designation} {_mm(rb[0])}–{_mm(rb[1])} mm",
+            (Expected(a.designation, q, ra[0], ra[1]), Expected(b.designation, q, rb[0], rb[1]))))
+    return out
+
+
+def _pitch_name(spec: ThreadSpec) -> str:
+    return f"{_tpi_text(spec.tpi)} tpi" if spec.tpi else f"{_mm(spec.pitch)} mm"
+
+
+def _wire_tell(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
+    """Return the wire readings that separate two forms of (nearly) the same pitch."""
+    from shopterm.cutting.wires import over_wires, wire_range
+    sa, sb = a.spec, b.spec
+    pair = (a.designation, b.designation)
+    la, lb = _limits(sa, "external"), _limits(sb, "external")
+    wire = m.wires[0].wire if m.wires else round(wire_range(sa.form, sa.pitch).best, 3)
+
+    def reading(spec: ThreadSpec, lim: Limits, w: float) -> tuple[float, float]:
+        lo, hi = _pd_band(lim)
+        return (over_wires(lo, w, spec.form, spec.pitch, spec.lead, method="h28"),
+                over_wires(hi, w, spec.form, spec.pitch, spec.lead, method="h28"))
+
+    ma, mb = reading(sa, la, wire), reading(sb, lb, wire)
+    overlap = ma[0] <= mb[1] and mb[0] <= ma[1]
+    out = [TellApart(
+        pair, "wires",
+        f"over {_mm(wire)} mm wires: {a.designation} {ma[0]:.3f}–{ma[1]:.3f} mm, "
+        f"{b.designation} {mb[0]:.3f}–{mb[1]:.3f} mm"
+        + (" — these overlap, so one wire size cannot settle it" if overlap else ""),
+        (Expected(a.designation, f"over {_mm(wire)} mm wires", *ma),
+         Expected(b.designation, f"over {_mm(wire)} mm wires", *mb)))]
+    w1, w2 = _two_wires(sa.form, sb.form, sa.pitch)
+    if w2 > w1:
+        def diff(spec: ThreadSpec, lim: Limits) -> float:
+            e = sum(_pd_band(lim)) / 2
+            return (over_wires(e, w2, spec.form, spec.pitch, spec.lead, method="h28")
+                    - over_wires(e, w1, spec.form, spec.pitch, spec.lead, method="h28"))
+        da, db = diff(sa, la), diff(sb, lb)
+        out.append(TellApart(
+            pair, "two wires",
+            f"measure over {_mm(w1)} mm wires and over {_mm(w2)} mm wires at the same place: "
+            f"the second reading is larger by {da:.3f} mm on {a.designation} "
+            f"({sa.form.angle_deg:g}°), {db:.3f} mm on {b.designation} "
+            f"({sb.form.angle_deg:g}°), whatever the wear",
+            (Expected(a.designation, f"over {_mm(w2)} minus over {_mm(w1)} mm wires", da, da),
+             Expected(b.designation, f"over {_mm(w2)} minus over {_mm(w1)} mm wires", db, db))))
+    return out
