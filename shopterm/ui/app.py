@@ -11,12 +11,14 @@ from textual.app import App
 from textual.screen import Screen
 
 from shopterm.ui.screens import FLOW, REGISTRY
+from shopterm.ui.themes import CONSOLE_CSS
 
 
 class ShoptermApp(App):
     """shopterm at the lathe."""
 
     CSS_PATH = "app.tcss"
+    CSS = CONSOLE_CSS
     ENABLE_COMMAND_PALETTE = False
     TITLE = "shopterm"
 
@@ -142,7 +144,7 @@ class ShoptermApp(App):
         themes, problems = load_themes(self.config.theme_dirs)
         for theme in themes:
             self.register_theme(theme)
-        message = apply_theme(self, self.shop.theme)
+        message = apply_theme(self, self.shop.theme, themes=themes)
         for problem in problems + ([message] if message else []):
             self.notify(problem, severity="warning", timeout=8)
 
