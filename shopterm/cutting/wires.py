@@ -21,7 +21,8 @@ symmetric thread of half-angle ``a``, pitch ``P``, wire diameter ``W``:
     wire until it settles at the tilt that lets it sink deepest, so X = min over θ of that
     maximum. Both searches are golden-section searches (pure Python, a few milliseconds). The
     groove is symmetric under a half turn about the micrometer's line, so the wire touches both
-    flanks; M = 2X + W. With L = 0 this reduces to ``simple`` exactly, and for small lead
+    flanks; M = 2X + W. The flank is taken only on its straight part (between the root and
+    crest roundings or flats), so a far, imaginary extension of it never holds the wire up. With L = 0 this reduces to ``simple`` exactly, and for small lead
     angles it agrees with ``h28`` (tests check both).
 
 All lengths in mm. Wire sizes: best W = P / (2 cos a) touches the flanks at the pitch line;
@@ -352,6 +353,9 @@ def wire_contact(pd: float, wire: float, form: ThreadForm, pitch: float,
     k = l / (2 * math.pi)
     c0 = p / 4 - e / 2 * tan_a
     cos, sin, sqrt = math.cos, math.sin, math.sqrt
+    _crest, top, bottom = _flank_limits(form)
+    root_apex = e / 2 - form.height * p / 2      # radius of the sharp root
+    rho_lo, rho_hi = root_apex + bottom * p, root_apex + top * p
 
     def sink_limit(theta: float):
         ct, st = cos(theta), sin(theta)
@@ -364,11 +368,22 @@ def wire_contact(pd: float, wire: float, form: ThreadForm, pitch: float,
             b = sin(phi) * st - tct
             if b > -1e-12:
                 return -math.inf
-            return c * (kct * phi + c0ct) / b - r * sqrt(b * b + c * c) / b
+            ee = kct * phi + c0ct
+            q = sqrt(b * b + c * c)
+            rho = (ee - r * c / q) / b
+            if rho_lo <= rho <= rho_hi:
+                return c * ee / b - r * q / b
+            # the flank exists only on its straight part: the depth is concave in ρ, so the
+            # largest depth there is at the nearer end
+            rho = rho_lo if rho < rho_lo else rho_hi
+            u = rho * b - ee
+            if abs(u) >= r:
+                return -math.inf
+            return rho * c + sqrt(r * r - u * u)
 
         # The contact lies within a wire's reach of the plane of the wire: scan, then refine.
         reach = min(1.2, 3 * (r + p) / max(e, 1e-9))
-        n = 8
+        n = 16
         step = 2 * reach / n
         best_i, best_v = 0, -math.inf
         for i in range(n + 1):
@@ -389,7 +404,7 @@ def wire_contact(pd: float, wire: float, form: ThreadForm, pitch: float,
     b = sin(phi) * st - tan_a * ct
     c = cos(phi)
     u = -r * c / sqrt(b * b + c * c)
-    rho = (u + (k * phi + c0) * ct) / b
+    rho = min(max((u + (k * phi + c0) * ct) / b, rho_lo), rho_hi)
     return WireContact(2 * x + w, x, math.degrees(theta), 2 * rho, math.degrees(phi))
 
 
