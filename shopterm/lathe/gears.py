@@ -37,7 +37,7 @@ DEFAULT_MARGIN = 15
 #: Most distinct tooth counts a gear set may have (keeps the compound table a few MB).
 MAX_DISTINCT_GEARS = 60
 
-#: Most teeth a change gear may have (the table packs teeth into 12 bits).
+#: Most teeth a change gear may have (keeps A*C and B*D exact and small).
 MAX_TEETH = 1000
 
 
@@ -227,10 +227,10 @@ class GearTrain:
 class _TrainTable:
     """Every simple and compound train of one gear set, sorted by ratio (numpy arrays).
 
-    Each train is packed into one int64 ``code``: bit 32 set for a compound train, then the
-    indices (into the sorted tooth list) of A, B, C, D, one byte each. Because the tooth list is
-    sorted, ordering codes orders trains by fewer gears, then by teeth A, B, C, D: the tie-break
-    inside one ratio.
+    Each train is one int64 ``code`` over the indices into the sorted tooth list (m gears):
+    a simple train i > j is ``i*m + j``; a compound train A/B x C/D is
+    ``m*m + ((a*m + b)*m + c)*m + d``. Ordering codes orders trains by fewer gears, then by
+    teeth A, B, C, D: the tie-break inside one ratio.
     """
 
     def __init__(self, gears: tuple[tuple[int, int], ...], margin: int, compound: bool):
@@ -238,33 +238,36 @@ class _TrainTable:
 
         self.teeth = teeth = np.array([t for t, _ in gears], dtype=np.int64)
         owned = np.array([n for _, n in gears], dtype=np.int64)
-        m = len(teeth)
+        self.m = m = len(teeth)
+        tf = teeth.astype(np.float64)
         codes, ratios = [], []
 
         # Simple trains: driver i, driven j; i == j needs two of that gear.
-        i, j = (g.ravel() for g in np.meshgrid(np.arange(m), np.arange(m), indexing="ij"))
+        i, j = np.divmod(np.arange(m * m), m) if m else (np.zeros(0, np.int64),) * 2
         ok = (i != j) | (owned[i] >= 2)
-        i, j = i[ok], j[ok]
-        codes.append((i << 24) | (j << 16))
-        ratios.append(teeth[i] / teeth[j])
+        codes.append(np.flatnonzero(ok))
+        ratios.append(tf[i[ok]] / tf[j[ok]])
 
         if compound and m:
-            # Compound A/B x C/D over all m**4 index choices at once (bool/int16 arrays).
+            # Compound A/B x C/D over all m**4 index choices at once.
             ia, jb, kc, ld = np.ix_(*(np.arange(m),) * 4)
             t16 = teeth.astype(np.int16)
-            ta, tb, tc, td = t16[ia], t16[jb], t16[kc], t16[ld]
-            ok = (ta + tb >= tc + margin) & (tc + td >= tb + margin)
-            if (owned < 4).any():
-                # How many of each gear the train uses must not exceed how many are owned.
-                ab, ac, ad = ia == jb, ia == kc, ia == ld
-                bc, bd, cd = jb == kc, jb == ld, kc == ld
-                ok &= ((1 + ab + ac + ad <= owned[ia]) & (1 + ab + bc + bd <= owned[jb])
-                       & (1 + ac + bc + cd <= owned[kc]) & (1 + ad + bd + cd <= owned[ld]))
-            qa, qb, qc, qd = np.nonzero(ok)
-            codes.append((1 << 32) | (qa << 24) | (qb << 16) | (qc << 8) | qd)
+            ok = (t16[ia] + t16[jb] >= t16[kc] + margin) & (t16[kc] + t16[ld] >= t16[jb] + margin)
+            repeat = ((ia == jb) | (ia == kc) | (ia == ld) | (jb == kc) | (jb == ld)
+                      | (kc == ld))
+            flat = np.flatnonzero(ok & ~repeat)
+            if (owned >= 2).any():
+                # A gear used more than once: keep it only if that many are owned.
+                rep = np.flatnonzero(ok & repeat)
+                q = np.stack(np.unravel_index(rep, (m,) * 4))           # 4 x n indices
+                use = (q[:, None, :] == q[None, :, :]).sum(axis=1)       # uses of each slot's gear
+                keep = (use <= owned[q]).all(axis=0)
+                flat = np.sort(np.concatenate([flat, rep[keep]]))
+            codes.append(m * m + flat)
             # A*C and B*D are exact in float64; their quotient is correctly rounded, so equal
             # rationals give equal floats and distinct ones (denominators < 2**26) differ.
-            ratios.append((teeth[qa] * teeth[qc]) / (teeth[qb] * teeth[qd]))
+            ac = np.multiply.outer(tf, tf)
+            ratios.append((ac[:, None, :, None] / ac[None, :, None, :]).ravel()[flat])
 
         code = np.concatenate(codes)
         ratio = np.concatenate(ratios)
@@ -283,12 +286,16 @@ class _TrainTable:
         return len(self.ratio)
 
     def decode(self, code: int) -> tuple[int, int, int, int]:
-        """Return the teeth (A, B, C, D) of a packed train; C = D = 0 for a simple train."""
-        t = self.teeth
-        a, b = int(t[(code >> 24) & 255]), int(t[(code >> 16) & 255])
-        if code >> 32:
-            return a, b, int(t[(code >> 8) & 255]), int(t[code & 255])
-        return a, b, 0, 0
+        """Return the teeth (A, B, C, D) of a coded train; C = D = 0 for a simple train."""
+        t, m = self.teeth, self.m
+        if code < m * m:
+            i, j = divmod(code, m)
+            return int(t[i]), int(t[j]), 0, 0
+        rest = code - m * m
+        rest, d = divmod(rest, m)
+        rest, c = divmod(rest, m)
+        a, b = divmod(rest, m)
+        return int(t[a]), int(t[b]), int(t[c]), int(t[d])
 
     def nearest(self, wanted: Fraction, groups: int, per_ratio: int):
         """Yield teeth (A, B, C, D) of trains in the ``groups`` distinct ratios either side of
@@ -300,12 +307,16 @@ class _TrainTable:
             return
         pos = int(np.searchsorted(u, float(wanted)))
         lo, hi = max(0, pos - groups - 1), min(len(u), pos + groups + 1)
+        s0, e0 = int(self.group_start[lo]), int(self.group_end[hi - 1])
+        if per_ratio == 1:
+            best = np.minimum.reduceat(self.code[s0:e0], self.group_start[lo:hi] - s0)
+            for code in best.tolist():
+                yield self.decode(code)
+            return
         for g in range(lo, hi):
             s, e = int(self.group_start[g]), int(self.group_end[g])
-            block = self.code[s:e]
-            best = np.sort(block)[:per_ratio] if e - s > per_ratio else np.sort(block)
-            for code in best:
-                yield self.decode(int(code))
+            for code in np.sort(self.code[s:e])[:per_ratio].tolist():
+                yield self.decode(code)
 
 
 def normalise_gears(gears: Iterable[tuple[int, int]] | Iterable[int]) -> tuple[tuple[int, int], ...]:
@@ -350,11 +361,6 @@ def train_table(gears: tuple[tuple[int, int], ...], margin: int = DEFAULT_MARGIN
 # The search
 # --------------------------------------------------------------------------------------------
 
-def rank_key(rel_error: Fraction, ngears: int, teeth: tuple[int, int, int, int], box_index: int):
-    """Return the sort key that ranks trains: |error|, then fewer gears, then teeth, then box."""
-    return (abs(rel_error), ngears, teeth, box_index)
-
-
 def find_trains(leadscrew: Leadscrew, lead: float | Fraction,
                 gears: Iterable[tuple[int, int]] | Iterable[int], *,
                 fixed_ratio: Fraction | int = 1,
@@ -394,44 +400,43 @@ def find_trains(leadscrew: Leadscrew, lead: float | Fraction,
     boxes: list[tuple[int, GearboxPosition | None]] = (
         list(enumerate(gearbox)) if gearbox else [(0, None)])
 
+    # Exact ranking in integers: with q = base / wanted, a train of ratio num/den makes
+    # q * num/den of the lead wanted, so its relative error is (qn*num - qd*den) / (qd*den).
     candidates = []
     for bi, pos in boxes:
         box_ratio = pos.ratio if pos is not None else Fraction(1)
         base = leadscrew.pitch_exact * fixed * box_ratio          # lead with a 1:1 train [mm]
-        need = wanted / base                                      # train ratio wanted
+        q = base / wanted
+        qn, qd = q.numerator, q.denominator
         if pos is not None:
-            rel = base / wanted - 1
-            candidates.append((rank_key(rel, 0, (0, 0, 0, 0), bi), (), (), Fraction(1), pos))
+            candidates.append(((abs(q - 1), 0, (0, 0, 0, 0), bi), (), (), 1, 1, pos, base))
         if table is None:
             continue
-        for a, b, c, d in table.nearest(need, limit, per_ratio):
-            r = Fraction(a * c, b * d) if c else Fraction(a, b)
-            rel = base * r / wanted - 1
+        for a, b, c, d in table.nearest(1 / q, limit, per_ratio):
             if c:
-                drivers, driven, ng = (a, c), (b, d), 4
+                num, den, drivers, driven, ng = a * c, b * d, (a, c), (b, d), 4
             else:
-                drivers, driven, ng = (a,), (b,), 2
-            candidates.append((rank_key(rel, ng, (a, b, c, d), bi), drivers, driven, r, pos))
+                num, den, drivers, driven, ng = a, b, (a,), (b,), 2
+            err = Fraction(abs(qn * num - qd * den), qd * den)
+            candidates.append(((err, ng, (a, b, c, d), bi), drivers, driven, num, den, pos,
+                               base))
 
     candidates.sort(key=lambda t: t[0])
-    seen: dict[tuple, int] = {}
+    seen: dict[Fraction, int] = {}
     out: list[GearTrain] = []
-    for key, drivers, driven, r, pos in candidates:
-        box_ratio = pos.ratio if pos is not None else Fraction(1)
-        ident = (r * box_ratio, )
-        if seen.get(ident, 0) >= per_ratio:
+    for key, drivers, driven, num, den, pos, base in candidates:
+        made = base * Fraction(num, den)                          # lead made [mm]
+        if seen.get(made, 0) >= per_ratio:
             continue
-        seen[ident] = seen.get(ident, 0) + 1
-        out.append(_make_train(leadscrew, wanted, fixed, drivers, driven, r, pos))
+        seen[made] = seen.get(made, 0) + 1
+        out.append(_make_train(wanted, made, drivers, driven, Fraction(num, den), pos))
         if len(out) >= limit:
             break
     return tuple(out)
 
 
-def _make_train(leadscrew: Leadscrew, wanted: Fraction, fixed: Fraction, drivers, driven,
-                r: Fraction, pos: GearboxPosition | None) -> GearTrain:
-    box_ratio = pos.ratio if pos is not None else Fraction(1)
-    made = leadscrew.pitch_exact * fixed * box_ratio * r
+def _make_train(wanted: Fraction, made: Fraction, drivers, driven, r: Fraction,
+                pos: GearboxPosition | None) -> GearTrain:
     rel = made / wanted - 1
     kind: TrainKind = "box" if not drivers else ("simple" if len(drivers) == 1 else "compound")
     return GearTrain(
