@@ -1,0 +1,308 @@
+"""Key benchmark: the app's own work per key press on a shopterm screen against a bare entry app.
+
+What is measured, and why it is fair:
+
+- Each app runs headless at 80x24 under ``App.run_test``. A key is posted to the app exactly as
+  the terminal driver posts it (an ``events.Key`` built the way Textual's own key helper builds
+  it, put on the app's message queue).
+- The clock is ``time.thread_time_ns()``: CPU time of the one thread that runs every Textual
+  message pump. Time spent asleep — waiting for the next frame tick, for input, for timers — is
+  not counted, so the figure is the *work* done for the key, not the frame wait.
+- The interval runs from posting the key until the app has settled: every message queue of the
+  app, the screen and all its widgets is empty (checked after ``Pilot._wait_for_screen``, which
+  lets each pump handle what was queued), then the dirty region is painted at once by the
+  compositor (``Screen._on_timer_update``, what the frame timer would have called), and the
+  queues are drained again for anything the paint scheduled. So the figure covers binding
+  lookup, the focused widget's handler, messages it sends (``Changed``/``Submitted`` and the
+  screen's handlers), reactive updates, layout if any, and the compositor render of the
+  dirty region.
+- The settling itself costs a little CPU (walking the widgets, scheduling callbacks). It is
+  measured the same way with no key posted ("null press", one after every key) and its median
+  is subtracted: ``net = median(key) − median(null)``, separately for each app, so a screen with
+  more widgets is not charged for the harness walking them.
+- The baseline is ``minimal_app.bare_keypad_app()``: a bare Textual app holding one focused
+  entry widget, the same ``KeypadEntry`` the screens use, and nothing else. So the ratio is
+  what a whole shopterm screen (status line, key bar, lists, handlers, the job record) costs per
+  key over the entry alone. A bare app with a stock Textual ``Input`` (blink off) is measured
+  too and reported beside it (``key_work_ratio_vs_input``); the Input does more per key than
+  our entry, so that ratio is the kinder one and is not the headline.
+- Every app types the same keys: a number and then Backspace until the entry is empty again
+  (``12.5`` ⌫⌫⌫⌫ by default; ``KEY_PLANS`` holds a plan per screen), so the state is the same
+  at the start of each cycle. One unrecorded cycle comes first. The check ``reached_entry``
+  confirms the keys really landed in the entry.
+- Sessions are interleaved: bare Input app, bare KeypadEntry app, each screen (every
+  shopterm session with a data dir of its own), then again, ``rounds`` times; the medians are over all the presses of all rounds.
+- A shopterm screen is measured by name: the harness chooses M10x1.5-6g (so screens that need a
+  thread have one), calls ``app.goto(name)``, focuses the screen's first visible
+  ``KeypadEntry`` and types. A screen that is not written yet, or that has no entry, is
+  reported and skipped; if no asked-for screen could be measured, the thread screen (its
+  designation entry) is measured instead and the report says so.
+
+``key_work_ratio`` is the largest of the measured screens' net medians over the baseline's.
+All of this uses two private Textual names (``Pilot._wait_for_screen``,
+``Screen._on_timer_update``); textual is pinned to 8.2.8.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import os
+import statistics
+import sys
+import tempfile
+import time
+import unicodedata
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+REPO = HERE.parents[1]
+for _p in (str(HERE), str(REPO)):
+    if _p not in sys.path:
+        sys.path.insert(0, _p)
+
+TARGET = 2.0
+#: Keys typed on each screen: type a value, then Backspace it all away.
+DEFAULT_PLAN: tuple[str, ...] = ("1", "2", "full_stop", "5", "backspace", "backspace",
+                                 "backspace", "backspace")
+KEY_PLANS: dict[str, tuple[str, ...]] = {
+    "counter": DEFAULT_PLAN,
+    "wires": ("1", "0", "full_stop", "0", "1", "6", "backspace", "backspace", "backspace",
+              "backspace", "backspace", "backspace"),
+}
+DEFAULT_SCREENS = ("counter", "wires")
+DEMO_THREAD = "M10x1.5-6g"
+
+
+class Unavailable(Exception):
+    """The screen asked for cannot be measured (not written yet, or no entry on it)."""
+
+
+def make_key(app, key: str):
+    """Return a fresh ``events.Key`` for ``key`` as Textual's own key helper builds it."""
+    from textual import events
+    from textual.keys import REPLACED_KEYS, _character_to_key, _get_unicode_name_from_key
+
+    if len(key) == 1 and not key.isalnum():
+        key = _character_to_key(key)
+    original = REPLACED_KEYS.get(key, key)
+    try:
+        char = unicodedata.lookup(_get_unicode_name_from_key(original))
+    except KeyError:
+        char = key if len(key) == 1 else None
+    event = events.Key(key, char)
+    event.set_sender(app)
+    return event
+
+
+def _pending(app) -> int:
+    nodes = [app, *app.screen.walk_children(with_self=True)]
+    return sum(n.message_queue_size for n in nodes)
+
+
+async def _drain(pilot) -> None:
+    for _ in range(100):
+        await pilot._wait_for_screen()
+        if not _pending(pilot.app):
+            return
+
+
+async def settle(pilot) -> None:
+    """Handle everything queued, paint the dirty region now, and handle what that queued."""
+    await _drain(pilot)
+    pilot.app.screen._on_timer_update()
+    await _drain(pilot)
+
+
+def _entry_value(entry) -> str:
+    return str(getattr(entry, "value", ""))
+
+
+async def measure_session(app, prepare, plan: tuple[str, ...], cycles: int) -> dict:
+    """Return per-key and null CPU times [ns] for ``cycles`` cycles of ``plan`` on one app.
+
+    prepare: ``async (app, pilot) -> entry widget`` that puts the app where keys are typed.
+    References: Python ``time.thread_time_ns`` (CLOCK_THREAD_CPUTIME_ID).
+    """
+    keys: list[int] = []
+    nulls: list[int] = []
+    reached = False
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        entry = await prepare(app, pilot)
+        app.clear_notifications()
+        await settle(pilot)
+        for cycle in range(cycles + 1):
+            typed = ""
+            for key in plan:
+                t0 = time.thread_time_ns()
+                app.post_message(make_key(app, key))
+                await settle(pilot)
+                t1 = time.thread_time_ns()
+                await settle(pilot)
+                t2 = time.thread_time_ns()
+                if key != "backspace":
+                    typed += "." if key == "full_stop" else key
+                if cycle > 0:          # the first cycle is the warm-up
+                    keys.append(t1 - t0)
+                    nulls.append(t2 - t1)
+                if key != "backspace" and _entry_value(entry).endswith(typed):
+                    reached = True
+    return {"keys_ns": keys, "nulls_ns": nulls, "reached_entry": reached}
+
+
+def _bare_prepare(app, pilot):
+    async def prep(app, pilot):
+        entry = app.query_one("#entry")
+        entry.focus()
+        await settle(pilot)
+        return entry
+    return prep(app, pilot)
+
+
+def screen_prepare(name: str):
+    """Return a ``prepare`` that shows the shopterm screen ``name`` and focuses its entry."""
+    async def prep(app, pilot):
+        import importlib.util
+
+        from shopterm.standards import parse
+        from shopterm.ui.screens import REGISTRY
+        from shopterm.ui.widgets.entry import KeypadEntry
+
+        if name not in REGISTRY:
+            raise Unavailable(f"no screen named {name!r} (known: {', '.join(REGISTRY)})")
+        if importlib.util.find_spec(REGISTRY[name][0]) is None:
+            raise Unavailable(f"screen {name!r} is not written yet ({REGISTRY[name][0]})")
+        if name != "thread" and getattr(app, "spec", None) is None:
+            app.thread_chosen(parse(DEMO_THREAD))
+        try:
+            app.goto(name)
+        except ModuleNotFoundError as exc:
+            raise Unavailable(f"screen {name!r} is not written yet ({exc.name})") from None
+        await settle(pilot)
+        if getattr(app.screen, "SCREEN_NAME", None) != name:
+            raise Unavailable(f"app.goto({name!r}) did not show that screen "
+                              f"(showing {type(app.screen).__name__})")
+        focused = app.focused
+        if isinstance(focused, KeypadEntry) and focused.display:
+            entry = focused
+        else:
+            shown = [e for e in app.screen.query(KeypadEntry) if e.display]
+            if not shown:
+                raise Unavailable(f"screen {name!r} has no visible entry field")
+            entry = shown[0]
+        entry.focus()
+        await settle(pilot)
+        return entry
+    return prep
+
+
+def _summary(sess: list[dict]) -> dict | None:
+    keys = [v for s in sess for v in s["keys_ns"]]
+    nulls = [v for s in sess for v in s["nulls_ns"]]
+    if not keys:
+        return None
+    k, n = statistics.median(keys), statistics.median(nulls)
+    return {"median_us": round(k / 1e3, 1), "null_us": round(n / 1e3, 1),
+            "net_us": round(max(k - n, 0.0) / 1e3, 1), "presses": len(keys),
+            "reached_entry": all(s["reached_entry"] for s in sess)}
+
+
+async def _run(screens: tuple[str, ...], rounds: int, cycles: int, config, data_root) -> dict:
+    from minimal_app import BareInputApp, bare_keypad_app
+    from shopterm.ui.app import ShoptermApp
+
+    sessions: dict[str, list[dict]] = {"bare_input": [], "bare_keypad": []}
+    made = iter(range(10_000))
+
+    def fresh_app():
+        # a data dir of its own for every session: a job left open by one session would make
+        # the next one start on the "carry on with job ...?" question
+        return ShoptermApp(config, data_dir=Path(data_root) / f"data{next(made)}")
+
+    unavailable: dict[str, str] = {}
+    wanted = list(screens)
+    for r in range(rounds):
+        sessions["bare_input"].append(
+            await measure_session(BareInputApp(), _bare_prepare, DEFAULT_PLAN, cycles))
+        sessions["bare_keypad"].append(
+            await measure_session(bare_keypad_app(), _bare_prepare, DEFAULT_PLAN, cycles))
+        for name in list(wanted):
+            try:
+                sessions.setdefault(name, []).append(await measure_session(
+                    fresh_app(), screen_prepare(name),
+                    KEY_PLANS.get(name, DEFAULT_PLAN), cycles))
+            except Unavailable as exc:
+                unavailable[name] = str(exc)
+                wanted.remove(name)
+                sessions.pop(name, None)
+        if not wanted and "thread" not in screens:
+            wanted = ["thread"]
+            sessions.setdefault("thread", []).append(await measure_session(
+                fresh_app(), screen_prepare("thread"),
+                DEFAULT_PLAN, cycles))
+    return {"sessions": sessions, "unavailable": unavailable}
+
+
+def run(screens: tuple[str, ...] = DEFAULT_SCREENS, rounds: int = 3, cycles: int = 8) -> dict:
+    """Return the key figures: net CPU time per key on each measured screen and the baselines.
+
+    screens: shopterm screen names to measure; rounds: interleaved sessions per app; cycles:
+    recorded cycles of the key plan per session.
+    Keys: key_work_ratio, key_screens_measured, key_screens_unavailable, key_detail.
+    """
+    from shopterm.config import load_config
+    from shopterm.resources import sample_config_path
+
+    saved = {k: os.environ.get(k) for k in ("XDG_CONFIG_HOME", "XDG_DATA_HOME")}
+    with tempfile.TemporaryDirectory(prefix="shopterm-bench-keys-") as tmp:
+        os.environ["XDG_CONFIG_HOME"] = str(Path(tmp) / "cfg")
+        os.environ["XDG_DATA_HOME"] = str(Path(tmp) / "data")
+        try:
+            config = load_config(sample_config_path())
+            raw = asyncio.run(_run(tuple(screens), rounds, cycles, config, Path(tmp)))
+        finally:
+            for k, v in saved.items():
+                if v is None:
+                    os.environ.pop(k, None)
+                else:
+                    os.environ[k] = v
+    detail = {name: _summary(s) for name, s in raw["sessions"].items()}
+    measured = [n for n in raw["sessions"] if n not in ("bare_input", "bare_keypad")
+                and detail.get(n)]
+
+    def ratios_over(baseline: str) -> dict[str, float]:
+        base = detail[baseline]["net_us"] if detail.get(baseline) else 0
+        return {n: round(detail[n]["net_us"] / base, 3) for n in measured if base > 0}
+
+    ratios = ratios_over("bare_keypad")
+    vs_input = ratios_over("bare_input")
+    return {"key_work_ratio": max(ratios.values()) if ratios else None,
+            "key_work_ratio_vs_input": max(vs_input.values()) if vs_input else None,
+            "key_ratios": ratios,
+            "key_screens_measured": measured,
+            "key_screens_unavailable": raw["unavailable"],
+            "key_detail": detail}
+
+
+def report_lines(res: dict) -> list[str]:
+    """Return the printed lines for the key figures."""
+    d = res["key_detail"]
+    base = d.get("bare_keypad")
+    if res["key_work_ratio"] is None or not base:
+        return ["key_work_ratio  null  (no screen could be measured: "
+                f"{res['key_screens_unavailable']})"]
+    parts = ", ".join(f"{n} {d[n]['net_us']:.0f} us" for n in res["key_screens_measured"])
+    inp = d.get("bare_input")
+    line = (f"key_work_ratio  {res['key_work_ratio']:.3f}  (target <= {TARGET})  "
+            f"CPU per key: {parts} vs bare KeypadEntry app {base['net_us']:.0f} us"
+            + (f" (bare Input app {inp['net_us']:.0f} us, ratio "
+               f"{res['key_work_ratio_vs_input']:.3f})" if inp else ""))
+    out = [line]
+    if res["key_screens_unavailable"]:
+        out.append("                screens not measured: " + "; ".join(
+            res["key_screens_unavailable"].values()))
+    return out
+
+
+if __name__ == "__main__":
+    print("\n".join(report_lines(run())))
