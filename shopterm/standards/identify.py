@@ -82,6 +82,8 @@ PD_OVER = 0.02
 WIRE_AGREEMENT = 0.015
 #: A rival scoring at least this share of the top score makes the answer ambiguous.
 AMBIGUOUS_RATIO = 0.25
+#: How many close rivals of the top candidate get a telling measurement.
+MAX_RIVALS = 5
 #: Candidates scoring below this are not listed.
 MIN_SCORE = 1e-4
 #: A pitch check over a count should differ by at least this much to be read with calipers [mm].
@@ -552,13 +554,17 @@ def identify_measured(m: Measured, *, limit: int = 8,
     elif listed[0].score < 0.05:
         note = ("The best fit is poor: check the measurements, or the thread may be a special "
                 "or worn beyond the usual.")
+    if not listed:
+        return Identification(m, (), False, (), note)
     top = listed[0]
     rivals = [c for c in listed[1:] if c.score >= AMBIGUOUS_RATIO * top.score]
-    close = [top] + rivals[:3]
+    # The top against each close rival, and the first three among themselves.
+    pairs = [(top, r) for r in rivals[:MAX_RIVALS]]
+    first = [top] + rivals[:2]
+    pairs += [(a, b) for i, a in enumerate(first[1:], 1) for b in first[i + 1:]]
     tell: list[TellApart] = []
-    for i, a in enumerate(close):
-        for b in close[i + 1:]:
-            tell.extend(tell_apart(a, b, m))
+    for a, b in pairs:
+        tell.extend(tell_apart(a, b, m))
     return Identification(m, tuple(listed), bool(rivals), tuple(tell), note)
 
 
