@@ -27,19 +27,9 @@ class KeypadEntry(Widget, can_focus=True):
 
     value: reactive[str] = reactive("", layout=False)
 
-    class Submitted(Message):
-        """Enter was pressed; ``value`` is the raw text (the screen parses and checks it)."""
-
-        def __init__(self, entry: "KeypadEntry", value: str) -> None:
-            super().__init__()
-            self.entry = entry
-            self.value = value
-
-        @property
-        def control(self) -> "KeypadEntry":
-            return self.entry
-
     class Changed(Message):
+        """The text changed; ``value`` is the raw text."""
+
         def __init__(self, entry: "KeypadEntry", value: str) -> None:
             super().__init__()
             self.entry = entry
@@ -48,6 +38,9 @@ class KeypadEntry(Widget, can_focus=True):
         @property
         def control(self) -> "KeypadEntry":
             return self.entry
+
+    class Submitted(Changed):
+        """Enter was pressed; ``value`` is the raw text (the screen parses and checks it)."""
 
     def __init__(self, value: str = "", *, prompt: str = "", placeholder: str = "",
                  text: bool = False, max_length: int = 40, id: str | None = None,
