@@ -27,9 +27,7 @@ class KeypadEntry(Widget, can_focus=True):
 
     value: reactive[str] = reactive("", layout=False)
 
-    class Changed(Message):
-        """The text changed; ``value`` is the raw text."""
-
+    class _EntryMessage(Message):
         def __init__(self, entry: "KeypadEntry", value: str) -> None:
             super().__init__()
             self.entry = entry
@@ -39,7 +37,10 @@ class KeypadEntry(Widget, can_focus=True):
         def control(self) -> "KeypadEntry":
             return self.entry
 
-    class Submitted(Changed):
+    class Changed(_EntryMessage):
+        """The text changed; ``value`` is the raw text."""
+
+    class Submitted(_EntryMessage):
         """Enter was pressed; ``value`` is the raw text (the screen parses and checks it)."""
 
     def __init__(self, value: str = "", *, prompt: str = "", placeholder: str = "",
