@@ -71,9 +71,10 @@ class JobsScreen(ShopScreen):
     SCREEN_NAME = "jobs"
     TITLE = "Jobs and export"
     AUTO_FOCUS = "#jobs-list"
-    DEFAULT_CSS = """
+    CSS = """
     JobsScreen #health { height: auto; max-height: 3; padding: 0 1; color: $error;
                          text-style: bold; }
+    JobsScreen #message { height: auto; max-height: 3; }
     JobsScreen #job-detail { height: auto; max-height: 3; padding: 0 1; }
     JobsScreen #written { height: auto; max-height: 2; padding: 0 1; }
     """
@@ -293,8 +294,8 @@ class JobsScreen(ShopScreen):
         try:
             write_export(path, text)
         except OSError as exc:
-            self.say(f"Could not write the {words} to {folder} ({exc.strerror or exc}); free "
-                     "some space or fix the card, then try again.", error=True)
+            self.say(f"Could not write the {words} ({exc.strerror or exc}) in {folder}. "
+                     "Free some space or fix the card, then try again.", error=True)
             return
         self.last_written = path
         self.query_one("#written", Static).update(Text(f"Written: {path}", style="bold"))
