@@ -104,8 +104,11 @@ def _child(kind: str, out_path: str, data_dir: str) -> int:
                 return original_run(self, *args, **kwargs)
 
             ui_app.ShoptermApp.run = headless_run
-            from shopterm.cli import main
-            seen["exit_code"] = main(["--data-dir", data_dir])
+            try:
+                from shopterm.cli import main
+                seen["exit_code"] = main(["--data-dir", data_dir])
+            finally:
+                ui_app.ShoptermApp.run = original_run
     except Exception as exc:  # reported by the parent, never hidden
         seen["error"] = f"{type(exc).__name__}: {exc}"
     Path(out_path).write_text(json.dumps(seen))
