@@ -1,6 +1,5 @@
 """Identify a thread from bench measurements: ranking, reasons, ambiguity, telling measurements."""
 
-import math
 from fractions import Fraction
 
 import pytest
