@@ -8,6 +8,7 @@ REGISTRY: dict[str, tuple[str, str, str]] = {
     "counter": ("shopterm.ui.screens.counter", "CounterScreen", "Pass counter"),
     "wires": ("shopterm.ui.screens.wires", "WiresScreen", "Wire reading"),
     "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
+    "identify": ("shopterm.ui.screens.identify", "IdentifyScreen", "What thread is this?"),
     "jobs": ("shopterm.ui.screens.jobs", "JobsScreen", "Jobs and export"),
 }
 
