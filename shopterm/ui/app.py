@@ -248,11 +248,15 @@ class ShoptermApp(App):
         return "  ".join(parts + ["│ saved"]), True
 
     # -- the thread --------------------------------------------------------------------------
-    def thread_chosen(self, spec) -> bool:
-        """The user chose a thread: start a job with it, or record the change in the open one."""
+    def thread_chosen(self, spec, extra: dict | None = None) -> bool:
+        """The user chose a thread: start a job with it, or record the change in the open one.
+
+        ``extra`` — more values for the record's thread entry (e.g. ``target_source: "sample"``).
+        """
         from shopterm.errors import ShoptermError
         payload = {"designation": spec.designation, "thread_kind": spec.kind,
-                   "tol_class": spec.tol_class or "", "starts": spec.starts, "hand": spec.hand}
+                   "tol_class": spec.tol_class or "", "starts": spec.starts, "hand": spec.hand,
+                   **(extra or {})}
         if self.store is None:
             self.spec = spec
             return True
@@ -261,7 +265,7 @@ class ShoptermApp(App):
                 self.job = self.store.new_job(spec.designation, spec.kind,
                                               self.shop.display_units)
                 self.job.append("thread_chosen", payload)
-            elif self.state.current_designation != spec.designation or (
+            elif extra or self.state.current_designation != spec.designation or (
                     self.state.thread and self.state.thread.values.get("starts") != spec.starts):
                 self.job.append("thread_chosen", payload)
         except ShoptermError as exc:
