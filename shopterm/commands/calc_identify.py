@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from shopterm.commands import add_json_option, emit_json
 from shopterm.errors import InvalidEntry
-from shopterm.standards.identify import COUNTED, Identification, identify
+from shopterm.cutting.identify import COUNTED, Identification, identify
 from shopterm.units import parse_number, parse_positive_length
 
 

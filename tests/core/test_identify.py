@@ -10,7 +10,7 @@ from shopterm.cutting import wires
 from shopterm.errors import InvalidEntry
 from shopterm.standards import catalogue
 from shopterm.standards.forms import ISO_60, WHITWORTH_55
-from shopterm.standards.identify import (AMBIGUOUS_RATIO, identify, measured, pitch_check_count,
+from shopterm.cutting.identify import (AMBIGUOUS_RATIO, identify, measured, pitch_check_count,
                                          pitch_from_count)
 
 IN = 25.4  # mm per inch, exact (NIST SP 811)

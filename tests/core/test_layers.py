@@ -29,3 +29,52 @@ def test_limits_do_not_import_numpy():
 def test_cli_limits_does_not_import_textual():
     mods = _loaded_after("from shopterm.cli import main\nmain(['calc', 'limits', 'M6x1-6g'])")
     assert "textual" not in mods
+
+
+# ---- each layer imports only the layers above it (DESIGN.md §1), read from the source ---------
+
+import ast
+from pathlib import Path
+
+PACKAGE = Path(__file__).resolve().parents[2] / "shopterm"
+
+
+def _imported(path: Path) -> set[str]:
+    """Return every module name ``path`` imports, at the top or inside a function."""
+    tree = ast.parse(path.read_text(encoding="utf-8"), filename=str(path))
+    names: set[str] = set()
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Import):
+            names.update(alias.name for alias in node.names)
+        elif isinstance(node, ast.ImportFrom) and node.module and node.level == 0:
+            names.add(node.module)
+            names.update(f"{node.module}.{alias.name}" for alias in node.names)
+    return names
+
+
+def _crossings(layer: str, below: tuple[str, ...]) -> list[str]:
+    out = []
+    for path in sorted((PACKAGE / layer).rglob("*.py")):
+        for name in sorted(_imported(path)):
+            if any(name == b or name.startswith(b + ".") for b in below):
+                out.append(f"{path.relative_to(PACKAGE.parent)} imports {name}")
+    return out
+
+
+def test_imported_reads_function_level_imports(tmp_path):
+    # The checker must see an import tucked inside a function and a package-level one,
+    # or it would miss the very crossings it is for.
+    probe = tmp_path / "probe.py"
+    probe.write_text("def f():\n    from shopterm.cutting.wires import over_wires\n"
+                     "from shopterm import job\n", encoding="utf-8")
+    names = _imported(probe)
+    assert "shopterm.cutting.wires" in names and "shopterm.job" in names
+
+
+def test_standards_import_no_lower_layer():
+    below = ("shopterm.lathe", "shopterm.cutting", "shopterm.job")
+    assert _crossings("standards", below) == []
+
+
+def test_lathe_imports_no_lower_layer():
+    assert _crossings("lathe", ("shopterm.cutting", "shopterm.job")) == []

@@ -38,6 +38,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import Iterable, Literal, Sequence
 
+from shopterm.cutting.wires import over_wires, pitch_diameter, wire_range
 from shopterm.errors import InvalidEntry
 from shopterm.standards.forms import ThreadForm
 from shopterm.standards.spec import Kind, Limits, ThreadSpec
@@ -447,8 +448,6 @@ def _angle_check(m: Measured, spec: ThreadSpec) -> Check | None:
 
 
 def _wire_pd(reading: WireEntry, spec: ThreadSpec) -> float | None:
-    # The three-wire relation lives with the cutting layer; it is geometry of the form only.
-    from shopterm.cutting.wires import pitch_diameter
     try:
         return pitch_diameter(reading.over_wires, reading.wire, spec.form, spec.pitch,
                               spec.lead, method="h28")
@@ -592,7 +591,6 @@ def _pd_band(lim: Limits) -> tuple[float, float]:
 
 def _two_wires(fa: ThreadForm, fb: ThreadForm, pitch: float) -> tuple[float, float]:
     """Return a small and a large wire [mm] that both forms' flanks take at ``pitch``."""
-    from shopterm.cutting.wires import wire_range
     ra, rb = wire_range(fa, pitch), wire_range(fb, pitch)
     small = max(ra.smallest, rb.smallest) * 1.1
     large = min(ra.largest, rb.largest) * 0.95
@@ -655,7 +653,6 @@ def _pitch_name(spec: ThreadSpec) -> str:
 
 def _wire_tell(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
     """Return the wire readings that separate two forms of (nearly) the same pitch."""
-    from shopterm.cutting.wires import over_wires, wire_range
     sa, sb = a.spec, b.spec
     pair = (a.designation, b.designation)
     la, lb = _limits(sa, "external"), _limits(sb, "external")
