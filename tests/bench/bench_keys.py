@@ -8,15 +8,15 @@ What is measured, and why it is fair:
 - The clock is ``time.thread_time_ns()``: CPU time of the one thread that runs every Textual
   message pump. Time spent asleep — waiting for the next frame tick, for input, for timers — is
   not counted, so the figure is the *work* done for the key, not the frame wait.
-- The interval runs from posting the key until the app has settled: every message queue of the
-  app, the screen and all its widgets is empty (checked after ``Pilot._wait_for_screen``, which
-  lets each pump handle what was queued), then the dirty region is painted at once by the
-  compositor (``Screen._on_timer_update``, what the frame timer would have called), and the
-  queues are drained again for anything the paint scheduled. So the figure covers binding
-  lookup, the focused widget's handler, messages it sends (``Changed``/``Submitted`` and the
-  screen's handlers), reactive updates, layout if any, and the compositor render of the
-  dirty region.
-- The settling itself costs a little CPU (walking the widgets, scheduling callbacks). It is
+- The interval runs from posting the key until the app is quiet again: the event loop has no
+  ready callback and no message queue of the app, the screen or its widgets holds a message,
+  on two event-loop turns running (a handler still busy is either runnable, or waiting on a
+  message it sent, or asleep); then the dirty region is painted at once by the compositor
+  (``Screen._on_timer_update``, what the frame timer would have called), and the app is let go
+  quiet again for anything the paint scheduled. So the figure covers binding lookup, the
+  focused widget's handler, messages it sends (``Changed``/``Submitted`` and the screen's
+  handlers), reactive updates, layout if any, and the compositor render of the dirty region.
+- Checking for quiet costs a little CPU (a few event-loop turns, walking the widgets). It is
   measured the same way with no key posted ("null press", one after every key) and its median
   is subtracted: ``net = median(key) − median(null)``, separately for each app, so a screen with
   more widgets is not charged for the harness walking them.
@@ -39,8 +39,9 @@ What is measured, and why it is fair:
   designation entry) is measured instead and the report says so.
 
 ``key_work_ratio`` is the largest of the measured screens' net medians over the baseline's.
-All of this uses two private Textual names (``Pilot._wait_for_screen``,
-``Screen._on_timer_update``); textual is pinned to 8.2.8.
+This uses private names: ``Screen._on_timer_update`` (textual is pinned to 8.2.8) and the
+standard asyncio loop's ``_ready`` queue (CPython 3.11; without it the harness falls back to
+``Pilot._wait_for_screen``).
 """
 
 from __future__ import annotations
@@ -94,23 +95,42 @@ def make_key(app, key: str):
     return event
 
 
-def _pending(app) -> int:
+def _queued(app) -> int:
+    """Return how many messages wait on the queues of the app, its screen and its widgets."""
     nodes = [app, *app.screen.walk_children(with_self=True)]
     return sum(n.message_queue_size for n in nodes)
 
 
-async def _drain(pilot) -> None:
-    for _ in range(100):
-        await pilot._wait_for_screen()
-        if not _pending(pilot.app):
+async def quiesce(pilot, spins: int = 100_000) -> None:
+    """Return when nothing in the app can run: no ready callback in the event loop and no message
+    queued, twice running (timers and sleepers may be waiting; they are not work).
+
+    A handler still busy is either runnable (a ready callback), or waiting on a message it sent
+    (a queue not empty), or asleep; so this holds only once the work is done.
+    """
+    ready = getattr(asyncio.get_running_loop(), "_ready", None)
+    if ready is None:           # not the standard asyncio loop: use Textual's own wait
+        for _ in range(100):
+            await pilot._wait_for_screen()
+            if not _queued(pilot.app):
+                return
+        return
+    calm = 0
+    for _ in range(spins):
+        await asyncio.sleep(0)
+        if ready or _queued(pilot.app):
+            calm = 0
+            continue
+        calm += 1
+        if calm >= 2:
             return
 
 
 async def settle(pilot) -> None:
     """Handle everything queued, paint the dirty region now, and handle what that queued."""
-    await _drain(pilot)
+    await quiesce(pilot)
     pilot.app.screen._on_timer_update()
-    await _drain(pilot)
+    await quiesce(pilot)
 
 
 def _entry_value(entry) -> str:
