@@ -1,0 +1,726 @@
+"""Wire reading: measure over three wires, see what is left to feed, record each reading.
+
+The screen shows the wire in use (the set-up's ``wire_mm``, else the best owned set that fits)
+and what the micrometer should read over it at the top and bottom of the pitch-diameter band.
+Each reading typed and confirmed with Enter is one ``wire_reading`` entry in the job record.
+Readings taken after the same cut (no pass in between) with the same wire are one set: the
+screen shows their mean and spread and acts on the mean. What it shows is always drawn from the
+record (``app.state``), never from a count of its own; the core (``shopterm.cutting.remaining``)
+computes every dimension.
+
+Internal threads cannot be measured over wires on most work: the screen says so and offers to
+record a fit check against the mating part or a plug gauge, as a ``note``.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+
+from rich.text import Text
+from textual import events, on
+from textual.app import ComposeResult
+from textual.containers import Horizontal
+from textual.widgets import Digits, Static
+
+from shopterm.errors import InvalidEntry, ShoptermError
+from shopterm.ui import keys
+from shopterm.ui.screens.base import ShopScreen
+from shopterm.ui.widgets.entry import KeypadEntry
+from shopterm.ui.widgets.picklist import PickList
+
+#: Characters a keyboard may add after a number to give its unit (``10.2mm``, ``.402in``, ``.4"``).
+UNIT_CHARS = set("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ\" ")
+#: Width of the band picture and of the chart bars [characters].
+PICTURE_WIDTH = 44
+#: How many sets of readings the chart shows (the latest ones).
+CHART_ROWS = 4
+#: Note text that marks a fit check in the record.
+FIT_PREFIX = "Fit check"
+
+
+# ---- reading sets: which readings belong together (no dimension computed here) -------------
+
+@dataclass(frozen=True)
+class ReadingSet:
+    """Readings taken after the same cut with the same wire."""
+
+    after_seq: int          # seq of the pass / spring pass / pick-up before them (0: none)
+    label: str              # "start", "pass 3", "spring", "pick-up"
+    wire_mm: float | None   # [mm]
+    readings: tuple         # shopterm.job.state.Reading, oldest first
+
+
+def cuts(state) -> list[tuple[int, str]]:
+    """Return (seq, label) of every cut in force (passes, spring passes, pick-ups), oldest first."""
+    out = [(p.seq, f"pass {p.n}") for p in state.passes]
+    out += [(s.seq, "spring") for s in state.spring_passes]
+    out += [(k.seq, "pick-up") for k in state.pickups]
+    return sorted(out)
+
+
+def same_wire(a: float | None, b: float | None) -> bool:
+    """Return whether two wire sizes [mm] are the same set (to a tenth of a micrometre)."""
+    if a is None or b is None:
+        return a is b
+    return abs(a - b) < 1e-4
+
+
+def reading_sets(state) -> list[ReadingSet]:
+    """Return the readings in force grouped into sets (same cut, same wire), oldest first."""
+    if state is None:
+        return []
+    marks = cuts(state)
+    sets: list[ReadingSet] = []
+    for r in state.readings:
+        before = [m for m in marks if m[0] < r.seq]
+        seq, label = before[-1] if before else (0, "start")
+        if sets and sets[-1].after_seq == seq and same_wire(sets[-1].wire_mm, r.wire_mm):
+            sets[-1] = replace(sets[-1], readings=sets[-1].readings + (r,))
+        else:
+            sets.append(ReadingSet(seq, label, r.wire_mm, (r,)))
+    return sets
+
+
+def current_set(state, wire_mm: float) -> ReadingSet | None:
+    """Return the set a new reading joins: the last one, if nothing was cut since and the wire is the same."""
+    sets = reading_sets(state)
+    if not sets:
+        return None
+    marks = cuts(state)
+    last_cut = marks[-1][0] if marks else 0
+    last = sets[-1]
+    if last.after_seq == last_cut and same_wire(last.wire_mm, wire_mm):
+        return last
+    return None
+
+
+# ---- pictures (positions on a line of characters, from values the core gave) -----------------
+
+def _column(value: float, left: float, right: float, width: int) -> int:
+    """Return the column of ``value`` on a scale from ``left`` (column 0) to ``right``."""
+    if right == left:
+        return width // 2
+    col = round((value - left) / (right - left) * (width - 1))
+    return min(max(col, 0), width - 1)
+
+
+def band_picture(pd: float, pd_max: float, pd_min: float, width: int = PICTURE_WIDTH) -> str:
+    """Return one line showing where ``pd`` sits against the band (big on the left).
+
+    ``[`` is the top of the band (PD max), ``]`` its bottom (PD min), ``█`` the reading;
+    ``<`` or ``>`` at an end means the reading is off the scale that way.
+    """
+    span = max(pd_max - pd_min, 1e-6)
+    left, right = pd_max + 2 * span, pd_min - span
+    cells = ["·"] * width
+    b0, b1 = _column(pd_max, left, right, width), _column(pd_min, left, right, width)
+    for i in range(b0 + 1, b1):
+        cells[i] = "░"
+    cells[b0], cells[b1] = "[", "]"
+    col = _column(pd, left, right, width)
+    off = pd > left or pd < right
+    cells[col] = ("<" if pd > left else ">") if off else "█"
+    return "big " + "".join(cells) + " small"
+
+
+def chart_rows(sets: list, pd_max: float, pd_min: float, unit: str,
+               width: int = PICTURE_WIDTH - 6) -> list[str]:
+    """Return the chart lines: one row per reading set; ``█`` moves right as the PD falls.
+
+    ``·`` runs from the reading to the top of the band (what was still to come off), ``│░│``
+    is the band.
+
+    sets: (label, pd [mm], count of readings) oldest first.
+    """
+    from shopterm.units import format_length
+    if not sets:
+        return []
+    span = max(pd_max - pd_min, 1e-6)
+    left = max(max(pd for _, pd, _ in sets), pd_max + span)
+    right = min(min(pd for _, pd, _ in sets), pd_min - span / 2)
+    b0, b1 = _column(pd_max, left, right, width), _column(pd_min, left, right, width)
+    res = 0.0001 if unit == "in" else 0.001
+    out = []
+    for label, pd, n in sets:
+        col = _column(pd, left, right, width)
+        cells = []
+        for i in range(width):
+            if i == col:
+                cells.append("█")
+            elif i in (b0, b1):
+                cells.append("│")
+            elif b0 < i < b1:
+                cells.append("░")
+            elif col < i < b0:
+                cells.append("·")   # still to come off
+            else:
+                cells.append(" ")
+        count = f"×{n}" if n > 1 else "  "
+        out.append(f"{label:<8}{format_length(pd, unit, res, suffix=False):>9} {count:<3}"
+                   + "".join(cells))
+    return out
+
+
+# ---- the screen -----------------------------------------------------------------------------
+
+class WiresScreen(ShopScreen):
+    SCREEN_NAME = "wires"
+    TITLE = "Wire reading"
+    AUTO_FOCUS = "#reading"
+    DEFAULT_CSS = """
+    WiresScreen #wires-head { height: auto; max-height: 4; padding: 0 1; }
+    WiresScreen #wire-list { display: none; }
+    WiresScreen #fit-list { display: none; }
+    WiresScreen #reading { margin: 0 0; }
+    WiresScreen #set-line { height: 1; padding: 0 1; }
+    WiresScreen #feed { height: 3; }
+    WiresScreen #feed-digits { color: $accent; text-style: bold; padding: 0 1; min-width: 9; }
+    WiresScreen #feed-text { height: 3; width: 1fr; }
+    WiresScreen #feed-how { height: auto; max-height: 3; padding: 0 1; }
+    WiresScreen #state-line { height: auto; max-height: 2; padding: 0 1; text-style: bold; }
+    WiresScreen #state-line.oversize { color: $warning; }
+    WiresScreen #state-line.in_band { color: $success; }
+    WiresScreen #state-line.undersize { color: $error; }
+    WiresScreen #detail { height: auto; max-height: 4; padding: 0 1; }
+    WiresScreen #picture { height: 1; padding: 0 1; }
+    WiresScreen #chart { height: auto; padding: 0 1; }
+    WiresScreen #message { height: auto; max-height: 3; }
+    WiresScreen #caution { dock: bottom; margin-bottom: 1; max-height: 3; }
+    """
+    BINDINGS = [keys.bind(keys.FORWARD, "forward", "counter", show=False)]
+    HELP = (("0-9 .", "type a reading over the wires (a unit may follow: mm, in)"),
+            ("Enter", "take the reading typed; on an empty entry: choose another wire"),
+            ("1-9", "in the wire list: pick a wire set, or type a measured size"),
+            ("/", "undo the last entry (asks first)"),
+            ("- or +", "back to the pass counter"))
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.mode = "reading"      # reading | wire_pick | wire_size | fit | fit_outcome
+        self.fit_against: str | None = None
+
+    def compose_body(self) -> ComposeResult:
+        yield Static("", id="wires-head")
+        yield PickList(id="wire-list", columns=2)
+        yield PickList(id="fit-list", columns=1)
+        yield KeypadEntry(prompt="Reading over wires: ", id="reading")
+        yield Static("", id="message", classes="message")
+        yield Static("", id="set-line")
+        with Horizontal(id="feed"):
+            yield Digits("", id="feed-digits")
+            yield Static("", id="feed-text")
+        yield Static("", id="feed-how")
+        yield Static("", id="state-line")
+        yield Static("", id="detail")
+        yield Static("", id="picture")
+        yield Static("", id="chart")
+        yield Static("", id="caution", classes="caution")
+
+    def on_mount(self) -> None:
+        super().on_mount()
+        self.redraw()
+
+    def on_screen_resume(self) -> None:
+        super().on_screen_resume()
+        self.redraw()
+
+    def job_changed(self) -> None:
+        """The record changed under us (an undo): draw everything again from it."""
+        self.say("")
+        self.redraw()
+
+    # -- what the screen works from ----------------------------------------------------------
+    @property
+    def unit(self) -> str:
+        return self.app.shop.display_units
+
+    @property
+    def res(self) -> float:
+        return 0.0001 if self.unit == "in" else 0.001
+
+    def fmt(self, mm: float, suffix: bool = True) -> str:
+        from shopterm.units import format_length
+        return format_length(mm, self.unit, self.res, suffix=suffix)
+
+    def limits(self):
+        """Return the thread's limits; a thread with no class is measured to its basic PD."""
+        from shopterm.standards import limits
+        lim = limits(self.app.spec)
+        if self.app.spec.tol_class is None:
+            lim = replace(lim, pd_max=lim.basic_pd, pd_min=lim.basic_pd)
+        return lim
+
+    def wire(self) -> tuple[float, str, str]:
+        """Return (wire [mm], its description, a problem to show or '')."""
+        from shopterm.cutting.wires import check_wire, choose_wire
+        spec = self.app.spec
+        owned = self.app.shop.wires
+        chosen = self.app.setup_values().get("wire_mm")
+        if chosen:
+            label = self.wire_label(float(chosen))
+            chk = check_wire(spec.form, spec.pitch, float(chosen), owned, self.unit)
+            if chk.ok:
+                return float(chosen), label, ""
+            problem = chk.message
+        else:
+            problem = ""
+        choice = choose_wire(spec.form, spec.pitch, owned, self.unit)
+        if choice.owned is not None:
+            return choice.size, self.wire_label(choice.size), problem
+        return choice.size, f"{self.fmt(choice.size)} (best size, not in your sets)", \
+            problem or choice.note
+
+    def wire_label(self, size: float) -> str:
+        from shopterm.units import parse_length
+        for w in self.app.shop.wires:
+            if same_wire(w.size, size):
+                extra = w.label
+                try:   # a label that only repeats the size says nothing in this unit
+                    if same_wire(parse_length(extra, self.unit), size):
+                        extra = ""
+                except ShoptermError:
+                    pass
+                if w.measured is not None and not extra:
+                    extra = f"marked {self.fmt(w.marked)}"
+                return self.fmt(size) + (f" ({extra})" if extra else "")
+        return f"{self.fmt(size)} (measured size)"
+
+    def feed_slide(self) -> tuple[str, float | None]:
+        """Return (the slide the user feeds with, compound angle from the set-up or None)."""
+        values = self.app.setup_values()
+        slide = "cross-slide" if values.get("method") == "radial" else "compound"
+        angle = values.get("compound_angle_deg")
+        return slide, (float(angle) if angle is not None else None)
+
+    def measure(self, readings: list[float], wire: float):
+        """Return the core's Measurement of ``readings`` [mm] over ``wire`` [mm] (raises if refused)."""
+        from shopterm.cutting.remaining import measure
+        _slide, angle = self.feed_slide()
+        aim = self.app.setup_values().get("aim_pd_mm")
+        kw = dict(lathe=self.app.lathe, compound_angle_deg=angle,
+                  resolution=self.app.shop.micrometer_resolution, unit=self.unit)
+        lim = self.limits()
+        try:
+            return measure(lim, wire, readings, aim_pd=aim, **kw)
+        except InvalidEntry:
+            if aim is None:
+                raise
+            return measure(lim, wire, readings, **kw)   # an aim outside a changed band: the middle
+
+    # -- drawing -----------------------------------------------------------------------------
+    def redraw(self) -> None:
+        if not self.is_mounted:
+            return
+        spec = self.app.spec
+        head = self.query_one("#wires-head", Static)
+        if spec is None:
+            head.update("Choose a thread first: * then the Thread screen.")
+            self.show_parts(entry=False, feed=False)
+            return
+        if not spec.is_external:
+            self.draw_internal()
+            return
+        try:
+            self.draw_external()
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+
+    def show_parts(self, *, entry: bool, feed: bool) -> None:
+        self.query_one("#reading").display = entry and self.mode in ("reading", "wire_size")
+        self.query_one("#wire-list").display = self.mode == "wire_pick"
+        self.query_one("#fit-list").display = self.mode in ("fit", "fit_outcome")
+        for sel in ("#feed", "#feed-how", "#state-line", "#detail", "#picture", "#chart", "#set-line"):
+            self.query_one(sel).display = feed
+        self.refresh_chrome()
+
+    def draw_external(self) -> None:
+        from shopterm.cutting.wires import MEASURE_CAUTION, band_over_wires
+        spec, state = self.app.spec, self.app.state
+        lim = self.limits()
+        wire, wire_text, problem = self.wire()
+        band = band_over_wires(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min, wire)
+        u = self.unit
+        cls = spec.tol_class or "basic"
+        head = Text()
+        head.append(f"{spec.designation}", style="bold")
+        head.append(f"  wire {wire_text}")
+        head.append(f"\nover wires: {self.fmt(band.at_pd_max, False)} (PD max "
+                    f"{self.fmt(lim.pd_max, False)}) to {self.fmt(band.at_pd_min, False)} "
+                    f"(PD min {self.fmt(lim.pd_min, False)}) {u}, {cls}")
+        self.query_one("#wires-head", Static).update(head)
+        entry = self.query_one("#reading", KeypadEntry)
+        entry.prompt = (f"Wire size as measured [{u}]: " if self.mode == "wire_size"
+                        else f"Reading over wires [{u}]: ")
+        entry.refresh()
+        if problem and self.mode == "reading":
+            self.say(problem, error=True)
+        self.query_one("#caution", Static).update(MEASURE_CAUTION)
+        self.show_parts(entry=True, feed=self.mode != "wire_pick")
+        if self.mode == "wire_pick":
+            return
+        current = current_set(state, wire)
+        if current is None:
+            self.draw_history(lim, CHART_ROWS)
+            self.draw_no_reading(state)
+            return
+        m = self.measure([r.measured_mm for r in current.readings], wire)
+        self.draw_measurement(m, current)
+        # an 80x24 screen has room for the feed, its turning hints and a spread warning only
+        # with a shorter chart; a taller one shows more of it
+        crowded = m.state == "oversize" and not m.readings.steady
+        self.draw_history(lim, max(1, CHART_ROWS + self.app.size.height - 24 - 2 * crowded))
+
+    def draw_no_reading(self, state) -> None:
+        marks = cuts(state) if state is not None else []
+        for sel in ("#feed", "#feed-how", "#detail", "#picture"):
+            self.query_one(sel).display = False
+        self.query_one("#picture").display = False
+        line = self.query_one("#state-line", Static)
+        line.set_classes("")
+        if state is not None and state.readings and marks:
+            line.update(f"Cut since the last reading ({marks[-1][1]}): measure again.")
+        elif state is not None and state.readings:
+            line.update("The wire has changed since the last reading: measure again.")
+        else:
+            line.update("No reading yet: place the wires, measure, type the reading, Enter.")
+        self.query_one("#set-line", Static).update("")
+
+    def draw_measurement(self, m, current: ReadingSet) -> None:
+        slide, _ = self.feed_slide()
+        r = m.readings
+        n = len(r.values)
+        set_text = Text("before any pass: " if current.after_seq == 0
+                        else f"after {current.label}: ")
+        if n == 1:
+            set_text.append(f"1 reading {self.fmt(r.mean)}")
+        else:
+            set_text.append(f"{n} readings: mean {self.fmt(r.mean, False)}, spread "
+                            f"{self.fmt(r.spread)}")
+            if not r.steady:
+                set_text.append(" TOO WIDE", style="bold reverse")
+        set_text.append(f" → PD {self.fmt(m.pitch_diameter)}")
+        self.query_one("#set-line", Static).update(set_text)
+
+        feed = m.feed_aim
+        setting = feed.on_compound if slide == "compound" else feed.cross
+        other = feed.cross if slide == "compound" else feed.on_compound
+        digits = self.query_one("#feed-digits", Digits)
+        text = Text()
+        how = self.query_one("#feed-how", Static)
+        if m.state == "oversize" and setting is not None:
+            digits.update(f"{setting.divisions:g}")
+            dial = setting.dial
+            where = (f"compound at {m.compound_angle_deg:g}°" if slide == "compound"
+                     else "cross-slide")
+            text.append(f"divisions more on the {where}", style="bold")
+            text.append(f"  ({dial.division:g} {dial.unit}/div"
+                        + (" on diameter)" if dial.reads_diameter else ")"))
+            top, bottom = self.limit_settings(m, slide)
+            text.append(f"\n→ PD {self.fmt(setting.predicted_pd)}, over wires "
+                        f"{self.fmt(setting.predicted_over_wires)}")
+            if top is not None:
+                text.append(f"\nin the band from {top} to {bottom} div")
+            if other is not None:
+                text.append(f" · on the {other.slide} {other.divisions:g}")
+            how.update(f"{m.direction} {m.backlash}")
+            how.display = True
+        else:
+            digits.update("0")
+            text.append("no more feed", style="bold")
+            text.append("\n" + ("Stop here." if m.state == "in_band"
+                                else "Do not feed any further."))
+            how.display = False
+        self.query_one("#feed-text", Static).update(text)
+        self.query_one("#feed").display = True
+
+        line = self.query_one("#state-line", Static)
+        line.set_classes(m.state)
+        line.update(m.headline)
+        detail = self.query_one("#detail", Static)
+        parts = []
+        if not r.steady:
+            parts.append(r.warning)
+        if m.state != "oversize":
+            parts.append(m.detail.replace(r.warning, "").strip())
+        detail.update(" ".join(p for p in parts if p))
+        detail.display = bool(parts)
+        picture = self.query_one("#picture", Static)
+        picture.update(band_picture(m.pitch_diameter, m.pd_max, m.pd_min))
+        picture.display = True
+        if m.state == "undersize":
+            self.query_one("#caution", Static).update(m.caution)
+
+    @staticmethod
+    def limit_settings(m, slide: str) -> tuple:
+        """Return (divisions to reach the top, divisions no further than the bottom) on ``slide``."""
+        def on(ft):
+            s = ft.on_compound if slide == "compound" else ft.cross
+            return None if s is None else f"{s.divisions:g}"
+        top, bottom = on(m.feed_top), on(m.feed_bottom)
+        if top is None or bottom is None:
+            return None, None
+        return top, bottom
+
+    def draw_history(self, lim, rows: int) -> None:
+        sets = reading_sets(self.app.state)
+        chart = self.query_one("#chart", Static)
+        if not sets:
+            chart.update("")
+            chart.display = False
+            return
+        rows_shown = rows
+        rows = [(s.label, s.readings[-1].pd_mm, len(s.readings)) for s in sets]
+        shown = rows[-rows_shown:]
+        title = Text(f"closing in: PD [{self.unit}] after each cut, │░│ the band", style="bold")
+        if len(rows) > len(shown):
+            title.append(f"  +{len(rows) - len(shown)} earlier", style="dim")
+        lines = chart_rows(shown, lim.pd_max, lim.pd_min, self.unit)
+        chart.update(Text("\n").join([title] + [Text(x) for x in lines]))
+        chart.display = True
+
+    # -- internal threads ---------------------------------------------------------------------
+    def draw_internal(self) -> None:
+        from shopterm.cutting.remaining import FIT_CHECKS, FIT_OUTCOMES, fit_check_offer
+        spec = self.app.spec
+        offer = fit_check_offer(spec)
+        head = Text(spec.designation, style="bold")
+        head.append("\n" + offer.message)
+        self.query_one("#wires-head", Static).update(head)
+        if self.mode not in ("fit", "fit_outcome"):
+            self.mode = "fit"
+        picks = self.query_one("#fit-list", PickList)
+        if self.mode == "fit":
+            picks.set_items([(label, key) for key, label in FIT_CHECKS],
+                            "Record a fit check against:")
+        else:
+            outcomes = FIT_OUTCOMES[self.fit_against]
+            picks.set_items([(msg.split(":")[0], key) for key, (_, msg) in outcomes.items()],
+                            "What happened?")
+        self.show_parts(entry=False, feed=False)
+        picks.focus()
+        self.query_one("#caution", Static).update(
+            "Stop the spindle before trying a gauge or the mating part; keep the chuck key "
+            "out and hands clear of the chuck. Follow your shop's rules and the maker's.")
+        notes = [n for n in (self.app.state.notes if self.app.state else ())
+                 if n.text.startswith(FIT_PREFIX)]
+        chart = self.query_one("#chart", Static)
+        if notes:
+            chart.update(Text("\n").join([Text("fit checks so far", style="bold")]
+                                         + [Text(n.text) for n in notes[-CHART_ROWS:]]))
+            chart.display = True
+
+    @on(PickList.Picked, "#fit-list")
+    def fit_picked(self, event: PickList.Picked) -> None:
+        from shopterm.cutting.remaining import FIT_CHECKS, record_fit_check
+        if self.mode == "fit":
+            self.fit_against = event.value
+            self.mode = "fit_outcome"
+            self.redraw()
+            return
+        try:
+            check = record_fit_check(self.fit_against, event.value)
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        against = dict(FIT_CHECKS)[check.against].removeprefix("Try ")
+        text = f"{FIT_PREFIX} against {against}: {check.message}"
+        if self.app.record("note", {"text": text}) is None:
+            self.say("The fit check was not recorded (see the message above); pick it again.",
+                     error=True)
+            return
+        self.mode = "fit"
+        self.redraw()
+        self.say(check.message, error=check.state == "past")
+
+    # -- wire choice -----------------------------------------------------------------------------
+    def wire_items(self) -> list[tuple[str, object]]:
+        from shopterm.cutting.wires import wire_range
+        spec = self.app.spec
+        rng = wire_range(spec.form, spec.pitch)
+        owned = sorted((w for w in self.app.shop.wires if rng.fits(w.size)),
+                       key=lambda w: abs(w.size - rng.best))
+        items: list[tuple[str, object]] = [(self.wire_label(w.size), w.size) for w in owned]
+        if not owned:
+            items.append((f"best size {self.fmt(rng.best)}", rng.best))
+        items.append(("type a measured size", "type"))
+        return items
+
+    def open_wire_list(self) -> None:
+        from shopterm.cutting.wires import wire_range
+        spec = self.app.spec
+        rng = wire_range(spec.form, spec.pitch)
+        self.mode = "wire_pick"
+        picks = self.query_one("#wire-list", PickList)
+        picks.set_items(self.wire_items()[:9],
+                        f"Wire sets that fit (best {self.fmt(rng.best)}, "
+                        f"{self.fmt(rng.smallest, False)}–{self.fmt(rng.largest)})")
+        self.redraw()
+        picks.focus()
+
+    @on(PickList.Picked, "#wire-list")
+    def wire_picked(self, event: PickList.Picked) -> None:
+        if event.value == "type":
+            self.mode = "wire_size"
+            self.query_one("#reading", KeypadEntry).clear()
+            self.redraw()
+            self.query_one("#reading").focus()
+            self.say("Type the wire diameter as your micrometer reads it, then Enter.")
+            return
+        self.use_wire(float(event.value))
+
+    def use_wire(self, size: float) -> bool:
+        from shopterm.cutting.wires import require_wire
+        spec = self.app.spec
+        try:
+            require_wire(spec.form, spec.pitch, size, self.app.shop.wires, self.unit)
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return False
+        if self.app.record_setup({"wire_mm": size}) is None:
+            self.say("The wire was not changed (see the message above).", error=True)
+            return False
+        self.mode = "reading"
+        self.query_one("#reading", KeypadEntry).clear()
+        self.redraw()
+        self.query_one("#reading").focus()
+        self.say(f"Wire {self.wire_label(size)} recorded in the set-up.")
+        return True
+
+    # -- readings ------------------------------------------------------------------------------
+    def on_key(self, event: events.Key) -> None:
+        """A unit typed after the number (keyboard only) goes into the entry."""
+        entry = self.query_one("#reading", KeypadEntry)
+        ch = event.character
+        if entry.has_focus and ch and ch in UNIT_CHARS and entry.value \
+                and len(entry.value) < entry.max_length:
+            entry.value += ch
+            event.stop()
+
+    @on(KeypadEntry.Submitted, "#reading")
+    def entry_submitted(self, event: KeypadEntry.Submitted) -> None:
+        event.stop()
+        text = event.value.strip()
+        if self.app.spec is None or not self.app.spec.is_external:
+            return
+        if self.mode == "wire_size":
+            self.wire_size_typed(text)
+            return
+        if not text:
+            self.open_wire_list()
+            return
+        self.reading_typed(text)
+
+    def wire_size_typed(self, text: str) -> None:
+        from shopterm.units import parse_positive_length
+        if not text:
+            self.mode = "reading"
+            self.redraw()
+            return
+        try:
+            size = parse_positive_length(text, self.unit, "wire diameter")
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        self.use_wire(size)
+
+    def reading_typed(self, text: str) -> None:
+        from shopterm.cutting.wires import ReadingSlip, check_reading
+        from shopterm.units import parse_length
+        spec = self.app.spec
+        try:
+            m = parse_length(text, self.unit)
+            lim = self.limits()
+            wire, _, _ = self.wire()
+            check_reading(m, spec.form, spec.pitch, spec.lead, lim.basic_major,
+                          lim.basic_minor, wire, self.unit)
+        except ReadingSlip as slip:
+            if slip.likely is None:
+                self.say(str(slip), error=True)
+                return
+            self.ask_slip(text, slip)
+            return
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        self.take_reading(m, text)
+
+    def ask_slip(self, text: str, slip) -> None:
+        """Ask whether a reading 25.4 times off meant the other unit; record nothing until answered."""
+        from shopterm.ui.screens.menu import ConfirmScreen
+        other = "in" if self.unit == "mm" else "mm"
+        from shopterm.units import format_length
+        meant = format_length(slip.likely, other, 0.0001 if other == "in" else 0.001)
+        question = (f"{slip}\n\nEnter: take it as {meant} ({self.fmt(slip.likely)}).\n"
+                    "-: no, change what I typed.")
+
+        def answer(yes: bool | None) -> None:
+            if yes:
+                self.take_reading(slip.likely, f"{text} (taken as {meant})")
+            else:
+                self.say("Nothing recorded: change the reading, or add its unit (mm or in).")
+                self.query_one("#reading").focus()
+
+        self.app.push_screen(ConfirmScreen(question), answer)
+
+    def take_reading(self, m: float, typed: str) -> None:
+        """Record one reading [mm]; show it as taken only once the record has it."""
+        state = self.app.state
+        wire, _, _ = self.wire()
+        current = current_set(state, wire)
+        values = [r.measured_mm for r in current.readings] if current else []
+        try:
+            result = self.measure(values + [m], wire)
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)
+            return
+        slide, _ = self.feed_slide()
+        setting = result.feed_aim.on_compound if slide == "compound" else result.feed_aim.cross
+        marks = cuts(state) if state is not None else []
+        payload = {
+            "measured_mm": m, "typed": typed, "pd_mm": result.pitch_diameter,
+            "state": result.state, "wire_mm": wire,
+            "pd_max_mm": result.pd_max, "pd_min_mm": result.pd_min, "aim_pd_mm": result.aim_pd,
+            "remaining_mm": max(result.to_aim, 0.0),
+            "radial_remaining_mm": max(result.to_aim, 0.0) / 2,
+            "mean_mm": result.readings.mean, "spread_mm": result.readings.spread,
+            "set_mm": list(result.readings.values), "steady": result.readings.steady,
+            "pd_h28_mm": result.pd.pd_h28, "pd_simple_mm": result.pd.pd_simple,
+            "after_seq": marks[-1][0] if marks else 0,
+            "slide": slide, "compound_angle_deg": result.compound_angle_deg,
+        }
+        if result.state == "oversize" and setting is not None:
+            payload["divisions"] = setting.divisions
+        if self.app.record("wire_reading", payload) is None:
+            self.say("The reading was not recorded (see the message above); it is still in "
+                     "the entry: Enter to try again.", error=True)
+            return
+        self.query_one("#reading", KeypadEntry).clear()
+        n = len(result.readings.values)
+        self.say(f"Reading {self.fmt(m)} taken" + (f" ({n} in this set)." if n > 1 else "."))
+        self.redraw()
+
+    # -- keys ----------------------------------------------------------------------------------
+    def key_hints(self) -> list[tuple[str, str]]:
+        if self.mode == "wire_pick":
+            return [("1-9", "pick wire"), ("-", "cancel"), ("/", "undo"), ("*", "menu"),
+                    ("F1", "help")]
+        if self.mode == "wire_size":
+            return [("Enter", "use this wire"), ("-", "cancel"), ("*", "menu"), ("F1", "help")]
+        if self.mode in ("fit", "fit_outcome"):
+            return [("1-9", "pick"), ("-", "back" if self.mode == "fit_outcome" else "counter"),
+                    ("/", "undo"), ("*", "menu"), ("F1", "help")]
+        return [("Enter", "take reading · empty: wire"), ("/", "undo"), ("-", "counter"),
+                ("*", "menu"), ("F1", "help")]
+
+    def action_back(self) -> None:
+        if self.mode in ("wire_pick", "wire_size", "fit_outcome"):
+            self.mode = "fit" if self.mode == "fit_outcome" else "reading"
+            self.say("")
+            self.redraw()
+            if self.mode == "reading":
+                self.query_one("#reading").focus()
+            return
+        self.app.goto("counter")
+
+    def action_forward(self) -> None:
+        self.app.goto("counter")
