@@ -31,7 +31,9 @@ What is measured, and why it is fair:
   at the start of each cycle. One unrecorded cycle comes first. The check ``reached_entry``
   confirms the keys really landed in the entry.
 - Sessions are interleaved: bare Input app, bare KeypadEntry app, each screen (every
-  shopterm session with a data dir of its own), then again, ``rounds`` times; the medians are over all the presses of all rounds.
+  shopterm session with a data dir of its own), then again, ``rounds`` times; the medians are
+  over all the presses of all rounds, and the ratio is also given round by round so the spread
+  on a busy machine can be seen.
 - A shopterm screen is measured by name: the harness chooses M10x1.5-6g (so screens that need a
   thread have one), calls ``app.goto(name)``, focuses the screen's first visible
   ``KeypadEntry`` and types. A screen that is not written yet, or that has no entry, is
@@ -263,7 +265,7 @@ async def _run(screens: tuple[str, ...], rounds: int, cycles: int, config, data_
     return {"sessions": sessions, "unavailable": unavailable}
 
 
-def run(screens: tuple[str, ...] = DEFAULT_SCREENS, rounds: int = 3, cycles: int = 8) -> dict:
+def run(screens: tuple[str, ...] = DEFAULT_SCREENS, rounds: int = 5, cycles: int = 8) -> dict:
     """Return the key figures: net CPU time per key on each measured screen and the baselines.
 
     screens: shopterm screen names to measure; rounds: interleaved sessions per app; cycles:
@@ -294,11 +296,21 @@ def run(screens: tuple[str, ...] = DEFAULT_SCREENS, rounds: int = 3, cycles: int
         base = detail[baseline]["net_us"] if detail.get(baseline) else 0
         return {n: round(detail[n]["net_us"] / base, 3) for n in measured if base > 0}
 
+    # the same ratio round by round (each round's sessions ran back to back), to show the spread
+    per_round = {}
+    for n in measured:
+        rs = []
+        for sess, base in zip(raw["sessions"][n], raw["sessions"]["bare_keypad"]):
+            b = _summary([base])
+            if b and b["net_us"] > 0:
+                rs.append(round(_summary([sess])["net_us"] / b["net_us"], 3))
+        per_round[n] = rs
     ratios = ratios_over("bare_keypad")
     vs_input = ratios_over("bare_input")
     return {"key_work_ratio": max(ratios.values()) if ratios else None,
             "key_work_ratio_vs_input": max(vs_input.values()) if vs_input else None,
             "key_ratios": ratios,
+            "key_ratios_per_round": per_round,
             "key_screens_measured": measured,
             "key_screens_unavailable": raw["unavailable"],
             "key_detail": detail}
@@ -318,6 +330,10 @@ def report_lines(res: dict) -> list[str]:
             + (f" (bare Input app {inp['net_us']:.0f} us, ratio "
                f"{res['key_work_ratio_vs_input']:.3f})" if inp else ""))
     out = [line]
+    rounds = res.get("key_ratios_per_round") or {}
+    if any(rounds.values()):
+        out.append("                round by round: " + "; ".join(
+            f"{n} " + " ".join(f"{r:.2f}" for r in rs) for n, rs in rounds.items()))
     if res["key_screens_unavailable"]:
         out.append("                screens not measured: " + "; ".join(
             res["key_screens_unavailable"].values()))

@@ -108,6 +108,7 @@ def test_startup_run_once_in_a_fresh_process(tmp_path):
     assert "error" not in r, r
     assert r["returncode"] == 0
     assert r["rss_kib"] > 0 and r["ready_ns"] > 0 and r["exit_ns"] >= r["ready_ns"]
+    assert r["cpu_ns"] > 0
     assert r["numpy"] is False      # a bare Textual app must not load numpy either
 
 
@@ -137,6 +138,7 @@ def test_keys_fall_back_to_the_thread_screen(isolated_env, monkeypatch):
         assert d[name]["net_us"] >= 0
     assert set(res["key_ratios"]) == {"thread"}
     assert res["key_work_ratio"] == res["key_ratios"]["thread"]
+    assert len(res["key_ratios_per_round"]["thread"]) == 1        # one round
     assert bench_keys.report_lines(res)[0].startswith("key_work_ratio")
 
 
