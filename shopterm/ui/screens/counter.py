@@ -242,6 +242,7 @@ def wrap_lines(items, width: int, bullet: str = "• ") -> list[str]:
 
 class CounterScreen(ShopScreen):
     SCREEN_NAME = "counter"
+    AUTO_FOCUS = ""
     TITLE = "Pass counter"
     BINDINGS = [keys.bind(keys.CONFIRM, "confirm", "confirm", show=False),
                 *keys.digit_keys("digit")]
@@ -377,9 +378,10 @@ class CounterScreen(ShopScreen):
         w = self.size.width or self.app.size.width or 80
         return max(40, w - 3)
 
-    def draw_extra(self, items: list[str], rows: int, *, caution: bool, title: str = "") -> None:
+    def draw_extra(self, items: list[str], rows: int, *, caution: bool, title: str = "",
+                   wrapped: bool = False) -> None:
         """Show ``items`` wrapped in the space left, a page at a time (9 turns the page)."""
-        lines = wrap_lines(items, self.width())
+        lines = list(items) if wrapped else wrap_lines(items, self.width())
         rows = max(2, rows - (1 if title else 0))
         pages = max(1, -(-len(lines) // rows))
         self.page %= pages
@@ -556,6 +558,7 @@ class CounterScreen(ShopScreen):
             nxt += " Then Enter." if v.kind != "spring" else " Then 0."
         self.query_one("#next", Static).update(Text("Next: " + nxt))
         if self.pickup is not None:
+            self.show(("#dial-row", "#cut-info", "#bar", "#next"), False)
             self.draw_pickup(cut)
             return
         used = 2 + 1 + 3 + 2 + 1 + (2 if len(nxt) > self.width() - 8 else 1) + 1
@@ -567,10 +570,11 @@ class CounterScreen(ShopScreen):
                             title="Before the first pass")
         else:
             items = [n for n in plan.notes if not n.startswith("No lathe")]
-            items = list(v.cautions) + [self.plan_line(cut)] + items[-3:]
+            cautions = [c for c in v.cautions if "past its limit" in c]
+            items = cautions + [self.plan_line(cut)] + items[-3:]
             if not cut.check.ok:
                 items.append("Tool check fails: 8 shows why.")
-            self.draw_extra(items, self.rows_left(used), caution=bool(v.cautions))
+            self.draw_extra(items, self.rows_left(used), caution=bool(cautions))
 
     def plan_line(self, cut: Cut) -> str:
         """Return the plan's dial counts from the zero: done ones in brackets, the next marked."""
@@ -586,14 +590,19 @@ class CounterScreen(ShopScreen):
     def draw_pickup(self, cut: Cut) -> None:
         pk = self.pickup
         steps = pickup_steps(cut.plan.method, cut.plan.internal)
+        first = 1
         if pk.get("reason") is None:
-            title = "Pick up the thread: 1 tool reground, 2 thread picked up again · - cancels"
+            title = "Pick up: 1 tool reground, 2 thread picked up again · - cancels"
         else:
-            title = (f"Pick up ({dict(PICKUP_REASONS)[pk['reason']]}): follow the steps, "
-                     "then enter the dial readings · - cancels")
-        used = 2 + 1 + 3 + 2 + 1 + 2 + 1 + (1 if pk.get("reason") else 0)
-        self.draw_extra([f"{i}. {s}" for i, s in enumerate(steps, 1)], self.rows_left(used),
-                        caution=False, title=title)
+            title = (f"Pick up ({pk['reason'].replace('_', ' ')}): with the tool back in the "
+                     "groove, enter the dial readings")
+            first = len(steps) - 2
+        self.query_one("#head", Static).update(Text(title, style="bold"))
+        used = 1 + 1 + (1 if pk.get("reason") else 0)
+        lines = []
+        for i, step in enumerate(steps[first - 1:], first):
+            lines += wrap_lines([step], self.width() - 1, bullet=f"{i}. ")
+        self.draw_extra(lines, self.rows_left(used) + 1, caution=False, wrapped=True)
 
     # -- keys --------------------------------------------------------------------------------
     def key_hints(self) -> list[tuple[str, str]]:
@@ -617,7 +626,10 @@ class CounterScreen(ShopScreen):
         if self.app.spec is None:
             return
         if self.pickup is not None:
-            if self.pickup.get("reason") is None and n in (1, 2):
+            if n == 9:
+                self.page += 1
+                self.redraw()
+            elif self.pickup.get("reason") is None and n in (1, 2):
                 self.pickup["reason"] = PICKUP_REASONS[n - 1][0]
                 self.next_pickup_entry()
             return

@@ -21,6 +21,7 @@ from shopterm.units import format_length, parse_length
 
 class ToolFormScreen(ShopScreen):
     SCREEN_NAME = "toolform"
+    AUTO_FOCUS = ""
     TITLE = "Tool form"
     BINDINGS = [*keys.digit_keys("digit")]
     HELP = (("1", "type a new tip size (flat width or nose radius); Enter uses it"),
@@ -134,7 +135,9 @@ class ToolFormScreen(ShopScreen):
         for line in verdicts:
             if line.startswith("•"):
                 failing = line[2:].startswith("Fails")
-            out.append(line + "\n", style="bold red" if failing else "")
+            if out:
+                out.append("\n")
+            out.append(line, style="bold red" if failing else "")
         self.query_one("#tf-verdicts", Static).update(out)
 
     def key_hints(self) -> list[tuple[str, str]]:
