@@ -183,7 +183,8 @@ class ChoiceList(PickList):
 
     async def _on_key(self, event: events.Key) -> None:
         if event.key in ("enter", "ctrl+j"):
-            return                      # bubbles to the screen: record the set-up
+            event.prevent_default()     # not PickList's pick: it bubbles on to the screen's
+            return                      # binding (record the set-up)
         if event.key in ("up", "down") and self.page_items():
             event.stop()
             event.prevent_default()
