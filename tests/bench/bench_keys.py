@@ -27,13 +27,15 @@ What is measured, and why it is fair:
   too and reported beside it (``key_work_ratio_vs_input``); the Input does more per key than
   our entry, so that ratio is the kinder one and is not the headline.
 - Every app types the same keys: a number and then Backspace until the entry is empty again
-  (``12.5`` ⌫⌫⌫⌫ by default; ``KEY_PLANS`` holds a plan per screen), so the state is the same
-  at the start of each cycle. One unrecorded cycle comes first. The check ``reached_entry``
-  confirms the keys really landed in the entry.
-- Sessions are interleaved: bare Input app, bare KeypadEntry app, each screen (every
-  shopterm session with a data dir of its own), then again, ``rounds`` times; the medians are
-  over all the presses of all rounds, and the ratio is also given round by round so the spread
-  on a busy machine can be seen.
+  (``12.5`` then four Backspaces, ``DEFAULT_PLAN``), so the state is the same at the start of
+  each cycle. One unrecorded cycle comes first. The check ``reached_entry`` confirms the keys
+  really landed in the entry.
+- All the apps of a round run side by side in one event loop, and each key is given to every
+  app in turn (the order rotating), so a busy machine's ups and downs fall on all of them
+  alike; while one app is measured the others are idle (the quiet check covers the whole
+  loop, so an idle app's timers would be counted against the one measured, not hidden).
+  ``rounds`` rounds start every app afresh (each shopterm app with a data dir of its own); the
+  medians are over all presses of all rounds, and the ratio is also given round by round.
 - A shopterm screen is measured by name: the harness chooses M10x1.5-6g (so screens that need a
   thread have one), calls ``app.goto(name)``, focuses the screen's first visible
   ``KeypadEntry`` and types. A screen that is not written yet, or that has no entry, is
@@ -64,14 +66,10 @@ for _p in (str(HERE), str(REPO)):
         sys.path.insert(0, _p)
 
 TARGET = 2.0
-#: Keys typed on each screen: type a value, then Backspace it all away.
+#: Keys typed on every app: type a value, then Backspace it all away (a count, a depth and a
+#: reading are all typed this way).
 DEFAULT_PLAN: tuple[str, ...] = ("1", "2", "full_stop", "5", "backspace", "backspace",
                                  "backspace", "backspace")
-KEY_PLANS: dict[str, tuple[str, ...]] = {
-    "counter": DEFAULT_PLAN,
-    "wires": ("1", "0", "full_stop", "0", "1", "6", "backspace", "backspace", "backspace",
-              "backspace", "backspace", "backspace"),
-}
 DEFAULT_SCREENS = ("counter", "wires")
 DEMO_THREAD = "M10x1.5-6g"
 
@@ -139,37 +137,59 @@ def _entry_value(entry) -> str:
     return str(getattr(entry, "value", ""))
 
 
-async def measure_session(app, prepare, plan: tuple[str, ...], cycles: int) -> dict:
-    """Return per-key and null CPU times [ns] for ``cycles`` cycles of ``plan`` on one app.
+async def measure_round(apps: dict, plan: tuple[str, ...], cycles: int) -> dict:
+    """Return per-key and null CPU times [ns] of each app, all running side by side.
 
-    prepare: ``async (app, pilot) -> entry widget`` that puts the app where keys are typed.
+    apps: name -> (app, prepare), prepare being ``async (app, pilot) -> entry widget`` that puts
+    the app where keys are typed (it raises ``Unavailable`` when it cannot); plan: keys of one
+    cycle; cycles: recorded cycles (one more, unrecorded, comes first).
+    Every app is started (headless, 80x24) in the same event loop; then key by key, each app
+    gets the same key in turn (the order rotating), so all of them see the same moments of the
+    machine. While one app is measured the others are idle.
+    Returns name -> {keys_ns, nulls_ns, reached_entry} and "_unavailable" -> {name: why}.
     References: Python ``time.thread_time_ns`` (CLOCK_THREAD_CPUTIME_ID).
     """
-    keys: list[int] = []
-    nulls: list[int] = []
-    reached = False
-    async with app.run_test(size=(80, 24)) as pilot:
-        await settle(pilot)
-        entry = await prepare(app, pilot)
-        app.clear_notifications()
-        await settle(pilot)
+    import contextlib
+
+    out: dict = {"_unavailable": {}}
+    async with contextlib.AsyncExitStack() as stack:
+        live: dict[str, tuple] = {}
+        for name, (app, prepare) in apps.items():
+            pilot = await stack.enter_async_context(app.run_test(size=(80, 24)))
+            await settle(pilot)
+            try:
+                entry = await prepare(app, pilot)
+            except Unavailable as exc:
+                out["_unavailable"][name] = str(exc)
+                continue
+            app.clear_notifications()
+            await settle(pilot)
+            live[name] = (app, pilot, entry)
+            out[name] = {"keys_ns": [], "nulls_ns": [], "reached_entry": False}
+        names = list(live)
+        step = 0
         for cycle in range(cycles + 1):
             typed = ""
             for key in plan:
-                t0 = time.thread_time_ns()
-                app.post_message(make_key(app, key))
-                await settle(pilot)
-                t1 = time.thread_time_ns()
-                await settle(pilot)
-                t2 = time.thread_time_ns()
                 if key != "backspace":
                     typed += "." if key == "full_stop" else key
-                if cycle > 0:          # the first cycle is the warm-up
-                    keys.append(t1 - t0)
-                    nulls.append(t2 - t1)
-                if key != "backspace" and _entry_value(entry).endswith(typed):
-                    reached = True
-    return {"keys_ns": keys, "nulls_ns": nulls, "reached_entry": reached}
+                order = names[step % len(names):] + names[:step % len(names)] if names else []
+                step += 1
+                for name in order:
+                    app, pilot, entry = live[name]
+                    t0 = time.thread_time_ns()
+                    app.post_message(make_key(app, key))
+                    await settle(pilot)
+                    t1 = time.thread_time_ns()
+                    await settle(pilot)
+                    t2 = time.thread_time_ns()
+                    rec = out[name]
+                    if cycle > 0:          # the first cycle is the warm-up
+                        rec["keys_ns"].append(t1 - t0)
+                        rec["nulls_ns"].append(t2 - t1)
+                    if key != "backspace" and _entry_value(entry).endswith(typed):
+                        rec["reached_entry"] = True
+    return out
 
 
 def _bare_prepare(app, pilot):
@@ -233,43 +253,43 @@ async def _run(screens: tuple[str, ...], rounds: int, cycles: int, config, data_
     from minimal_app import BareInputApp, bare_keypad_app
     from shopterm.ui.app import ShoptermApp
 
-    sessions: dict[str, list[dict]] = {"bare_input": [], "bare_keypad": []}
     made = iter(range(10_000))
 
     def fresh_app():
-        # a data dir of its own for every session: a job left open by one session would make
-        # the next one start on the "carry on with job ...?" question
+        # a data dir of its own for every app: a job left open by one would make the next one
+        # start on the "carry on with job ...?" question
         return ShoptermApp(config, data_dir=Path(data_root) / f"data{next(made)}")
 
+    sessions: dict[str, list[dict]] = {}
     unavailable: dict[str, str] = {}
     wanted = list(screens)
-    for r in range(rounds):
-        sessions["bare_input"].append(
-            await measure_session(BareInputApp(), _bare_prepare, DEFAULT_PLAN, cycles))
-        sessions["bare_keypad"].append(
-            await measure_session(bare_keypad_app(), _bare_prepare, DEFAULT_PLAN, cycles))
-        for name in list(wanted):
-            try:
-                sessions.setdefault(name, []).append(await measure_session(
-                    fresh_app(), screen_prepare(name),
-                    KEY_PLANS.get(name, DEFAULT_PLAN), cycles))
-            except Unavailable as exc:
-                unavailable[name] = str(exc)
-                wanted.remove(name)
-                sessions.pop(name, None)
-        if not wanted and "thread" not in screens:
+    for _ in range(rounds):
+        apps = {"bare_input": (BareInputApp(), _bare_prepare),
+                "bare_keypad": (bare_keypad_app(), _bare_prepare)}
+        for name in wanted:
+            apps[name] = (fresh_app(), screen_prepare(name))
+        got = await measure_round(apps, DEFAULT_PLAN, cycles)
+        unavailable.update(got.pop("_unavailable"))
+        if not [n for n in got if n not in ("bare_input", "bare_keypad")]:
+            # none of the asked-for screens is there: measure the thread screen instead
             wanted = ["thread"]
-            sessions.setdefault("thread", []).append(await measure_session(
-                fresh_app(), screen_prepare("thread"),
-                DEFAULT_PLAN, cycles))
+            apps = {"bare_input": (BareInputApp(), _bare_prepare),
+                    "bare_keypad": (bare_keypad_app(), _bare_prepare),
+                    "thread": (fresh_app(), screen_prepare("thread"))}
+            got = await measure_round(apps, DEFAULT_PLAN, cycles)
+            unavailable.update(got.pop("_unavailable"))
+        else:
+            wanted = [n for n in wanted if n in got]
+        for name, rec in got.items():
+            sessions.setdefault(name, []).append(rec)
     return {"sessions": sessions, "unavailable": unavailable}
 
 
-def run(screens: tuple[str, ...] = DEFAULT_SCREENS, rounds: int = 5, cycles: int = 8) -> dict:
+def run(screens: tuple[str, ...] = DEFAULT_SCREENS, rounds: int = 3, cycles: int = 10) -> dict:
     """Return the key figures: net CPU time per key on each measured screen and the baselines.
 
-    screens: shopterm screen names to measure; rounds: interleaved sessions per app; cycles:
-    recorded cycles of the key plan per session.
+    screens: shopterm screen names to measure; rounds: times every app is started afresh and
+    measured side by side; cycles: recorded cycles of the key plan per round.
     Keys: key_work_ratio, key_screens_measured, key_screens_unavailable, key_detail.
     """
     from shopterm.config import load_config
