@@ -198,6 +198,7 @@ class WiresScreen(ShopScreen):
         super().__init__()
         self.mode = "reading"      # reading | wire_pick | wire_size | fit | fit_outcome
         self.fit_against: str | None = None
+        self.draft = ""            # the entry's text not yet confirmed (kept over a re-compose)
 
     def compose_body(self) -> ComposeResult:
         yield Static("", id="wires-head")
@@ -218,7 +219,16 @@ class WiresScreen(ShopScreen):
 
     def on_mount(self) -> None:
         super().on_mount()
+        # The app may have taken this screen down while another was shown (it is composed
+        # again then): bring back what was typed and not yet confirmed.
+        if self.mode == "wire_pick":
+            self.mode = "reading"
+        self.query_one("#reading", KeypadEntry).value = self.draft
         self.redraw()
+
+    @on(KeypadEntry.Changed, "#reading")
+    def entry_changed(self, event: KeypadEntry.Changed) -> None:
+        self.draft = event.value
 
     def on_screen_resume(self) -> None:
         super().on_screen_resume()
@@ -389,7 +399,7 @@ class WiresScreen(ShopScreen):
         slide, _ = self.feed_slide()
         r = m.readings
         n = len(r.values)
-        set_text = Text("before any pass: " if current.after_seq == 0
+        set_text = Text("before pass 1: " if current.after_seq == 0
                         else f"after {current.label}: ")
         if n == 1:
             set_text.append(f"1 reading {self.fmt(r.mean)}")
