@@ -48,9 +48,10 @@ SECTIONS = ("core", "startup", "keys", "gears")
 
 
 def calibration_ms(repeats: int = 5) -> float:
-    """Return the median time [ms] of a fixed pure-Python workload (floats, tuples, dicts).
+    """Return the median CPU time [ms] of a fixed pure-Python workload (floats, tuples, dicts).
 
-    Used to scale figures between machines: run this file on both and compare.
+    Used to scale figures between machines: run this file on both and compare. CPU time of
+    this thread, so other processes on a busy machine do not inflate it.
     References: none (our own workload; only its ratio between machines means anything).
     """
     def work() -> float:
@@ -64,9 +65,9 @@ def calibration_ms(repeats: int = 5) -> float:
 
     times = []
     for _ in range(repeats):
-        t0 = time.perf_counter()
+        t0 = time.thread_time()
         work()
-        times.append((time.perf_counter() - t0) * 1e3)
+        times.append((time.thread_time() - t0) * 1e3)
     return round(statistics.median(times), 2)
 
 
