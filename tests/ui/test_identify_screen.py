@@ -262,3 +262,30 @@ async def test_fits_at_100x30_with_more_room_for_reasons(make_app):
         assert len(lines) == 30
         text = "\n".join(lines)
         assert "To tell" in text and "menu" in lines[-1]     # key bar still on the last line
+
+
+async def test_sample_wire_and_reading_mistakes_are_refused_in_place(make_app):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_screen(app, pilot)
+        await measure_bolt(pilot, app, "9.95", "gauge in mm", "1.5", angle="60°")
+        await pick(pilot, app, "show the candidates")
+        await pilot.press("1")
+        await pick(pilot, app, "a nut to fit the sample bolt")
+        await pick(pilot, app, "measure it over wires")
+        await pick(pilot, app, "another size: type it")
+        entry = app.screen.query_one("#number")
+        await type_in(pilot, ".3")
+        # NBS H28 / published-values §5: the smallest wire for 60°, P 1.5 is 0.505 P = 0.758 mm
+        assert "too small" in screen_text(app) and entry.value == ".3"
+        await pilot.press("backspace", "8", "6", "6", "enter")      # ".866"
+        assert "Reading over the 0.866 mm wires on the sample bolt" in screen_text(app)
+        await type_in(pilot, "0.403")                        # an inch reading typed as mm
+        text = " ".join(screen_text(app).split())
+        assert "inches taken as mm" in text and "converted to mm" in text
+        assert entry.value == "0.403"
+        await pilot.press("i", "n", "enter")                 # the unit typed after it
+        assert "Fit clearance" in screen_text(app)
+        await pilot.press("enter")
+        # 0.403 in = 10.2362 mm exactly (1 in = 25.4 mm); the sample's reading as recorded
+        assert app.screen.target.reading.over_wires == pytest.approx(0.403 * 25.4)

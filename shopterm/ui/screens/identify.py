@@ -26,6 +26,7 @@ from textual import on
 from textual.app import ComposeResult
 from textual.widgets import Static
 
+from shopterm.cutting.wires import ReadingSlip
 from shopterm.errors import InvalidEntry, ShoptermError
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
@@ -58,6 +59,19 @@ ANGLES = (("60° (metric, Unified)", 60.0), ("55° (Whitworth form)", 55.0),
 TYPE_SIZE = "type"
 
 
+class MeasureEntry(KeypadEntry):
+    """A number entry that also takes a unit typed after the number (``0.403in``, ``10.24mm``).
+
+    Letters only, so ``-`` and ``/`` still reach the screen as back and undo.
+    """
+
+    def _accepts(self, ch: str) -> bool:
+        return super()._accepts(ch) or ch in UNIT_CHARS
+
+
+UNIT_CHARS = set("inmINM\"")
+
+
 def wire_label(size_mm: float, unit: str, label: str = "") -> str:
     """Return a wire size as the owner reads it: 0.866 mm, 0.0290 in, with its label."""
     text = format_length(size_mm, unit, 0.0001 if unit == "in" else 0.001)
@@ -70,7 +84,7 @@ class IdentifyScreen(ShopScreen):
     AUTO_FOCUS = "#choices"
     CSS = """
     IdentifyScreen #entered { height: auto; max-height: 2; padding: 0 1; color: $text-muted; }
-    IdentifyScreen #message { height: auto; max-height: 3; }
+    IdentifyScreen #message { height: auto; max-height: 5; }
     IdentifyScreen #question { height: auto; padding: 0 1; text-style: bold; }
     IdentifyScreen #detail { height: 1fr; padding: 0 1; }
     """
@@ -96,7 +110,7 @@ class IdentifyScreen(ShopScreen):
         yield Static("", id="entered")
         yield Static("", id="message", classes="message")
         yield Static("", id="question")
-        yield KeypadEntry(prompt="> ", id="number")
+        yield MeasureEntry(prompt="> ", id="number")
         yield PickList(columns=1, id="choices")
         yield Static("", id="detail")
 
@@ -490,6 +504,10 @@ class IdentifyScreen(ShopScreen):
         self.typed[self.typed_key(step)] = raw
         try:
             value = self.read_entry(step, text)
+        except ReadingSlip as exc:
+            self.say(f"{exc} From the keypad alone, type it converted to {self.unit}.",
+                     error=True)
+            return
         except ShoptermError as exc:
             self.say(str(exc), error=True)
             return
