@@ -158,6 +158,11 @@ def cut_from_record(spec, lathe, state) -> Cut:
         return dict(chosen[-1].values) if chosen else {}
 
     base = setup_at(first_seq)
+    if not is_prepared(base) and setups:
+        # passes recorded before the counter's set-up: plan from the first full set-up
+        full = [s for s in setups if is_prepared(s.values)]
+        base = dict(full[0].values) if full else base
+        first_seq = full[0].seq if full else first_seq
     lim, depth, method, plan, check = prepare(spec, lathe, base)
     tip = ToolTip(base["tool_kind"], float(base["tool_size_mm"]))
     markers = []
@@ -336,9 +341,11 @@ class CounterScreen(ShopScreen):
 
     def in_prep(self) -> bool:
         st = self.app.state
+        if not is_prepared(self.app.setup_values()):
+            return True          # also when passes were recorded without a set-up
         if st is not None and st.passes:
             return False
-        return self.force_prep or not is_prepared(self.app.setup_values())
+        return self.force_prep
 
     def ensure_draft(self) -> None:
         if self.draft is None or self.draft_job is not self.app.job:
@@ -418,7 +425,7 @@ class CounterScreen(ShopScreen):
         else:
             hint = f"major {self.L(lim.major_min)} to {self.L(lim.major_max)}"
         if d.get("blank_od_mm") is not None and not od.has_focus:
-            hint = f"entered {self.L(d['blank_od_mm'])} · {hint}"
+            hint = f"= {self.L(d['blank_od_mm'])}  ({hint.replace(f' {u}', '')} {u})"
         self.query_one("#od-hint", Static).update(hint)
         if d.get("blank_od_mm") is None and self.editing is None and not od.has_focus:
             od.focus()
@@ -459,7 +466,7 @@ class CounterScreen(ShopScreen):
         lines.append("7 ", style="bold")
         lines.append(f"spring {len(plan.spring_passes)}\n")
         lines.append(f"Total infeed {self.L(depth.total_radial)} radial", style="bold")
-        lines.append(f" · standard's basic depth {self.L(depth.basic_depth)}")
+        lines.append(f" · basic depth {self.L(depth.basic_depth)}")
         if method.feeds_with == "compound":
             lines.append(f" · compound {self.L(plan.compound_total)}")
         lines.append("\n")
