@@ -234,18 +234,19 @@ class ShoptermApp(App):
 
     # -- what the status line says -----------------------------------------------------------
     def status_text(self, title: str) -> tuple[str, bool]:
-        """Return (status line text, whether entries are being saved)."""
-        parts = [f"shopterm │ {title}"]
+        """Return (status line text, whether entries are being saved).
+
+        The saving state comes right after the title so that a narrow screen never cuts it off.
+        """
+        ok = self.store is not None and not (
+            self.job is not None and (self.job.health or self.job.read_only))
+        parts = [f"shopterm │ {title}", "saved" if ok else "NOT SAVING"]
         if self.job is not None:
             parts.append(f"job {self.job.job_id}")
         if self.spec is not None:
             parts.append(self.spec.designation)
         parts.append(f"cfg {Path(str(self.config.path)).name}")
-        if self.store is None:
-            return "  ".join(parts + ["│ NOT SAVING"]), False
-        if self.job is not None and (self.job.health or self.job.read_only):
-            return "  ".join(parts + ["│ NOT SAVING"]), False
-        return "  ".join(parts + ["│ saved"]), True
+        return " │ ".join(parts), ok
 
     # -- the thread --------------------------------------------------------------------------
     def thread_chosen(self, spec, extra: dict | None = None) -> bool:

@@ -132,6 +132,7 @@ class ThreadScreen(ShopScreen):
 
     def on_mount(self) -> None:
         super().on_mount()
+        self.query_one("#choices", PickList).focus()
         self.show_step()
 
     # -- typed designation -------------------------------------------------------------------

@@ -5,6 +5,8 @@ With NumLock off, ↑/↓ move the highlight, PgUp/PgDn turn pages and Enter pic
 
 from __future__ import annotations
 
+import asyncio
+from contextlib import suppress
 from typing import Any, Sequence
 
 from rich.text import Text
@@ -86,11 +88,28 @@ class PickList(Widget, can_focus=True):
         rows = -(-max(1, len(self.page_items())) // self.columns)
         return rows + (1 if self.title else 0)
 
-    def pick(self, index_on_page: int) -> None:
+    def pick(self, index_on_page: int) -> bool:
+        """Tell the screen that item ``index_on_page`` was picked; False if there is none."""
         items = self.page_items()
-        if 0 <= index_on_page < len(items):
-            self.post_message(self.Picked(self, self.page * PAGE + index_on_page,
-                                          items[index_on_page][1]))
+        if not 0 <= index_on_page < len(items):
+            return False
+        # Straight to the screen (every screen handles its lists itself), so that the
+        # ``settled`` callback queued behind it runs only once the screen has acted on it.
+        return self.screen.post_message(self.Picked(self, self.page * PAGE + index_on_page,
+                                                     items[index_on_page][1]))
+
+    async def _pick_and_settle(self, index_on_page: int) -> None:
+        """Pick, then hold the next key until the screen has acted on the pick.
+
+        A keypad user types ahead: without this, a second digit pressed before the screen has
+        shown the next list would pick from the old one.
+        """
+        if not self.pick(index_on_page):
+            return
+        settled = asyncio.Event()
+        if self.screen.call_later(settled.set):
+            with suppress(asyncio.TimeoutError):
+                await asyncio.wait_for(settled.wait(), 0.5)
 
     def next_page(self, step: int = 1) -> None:
         self.page = (self.page + step) % self.pages
@@ -100,7 +119,7 @@ class PickList(Widget, can_focus=True):
         key = event.key
         handled = True
         if key in "123456789" and len(key) == 1:
-            self.pick(int(key) - 1)
+            await self._pick_and_settle(int(key) - 1)
         elif key == "0":
             self.next_page()
         elif key == "pagedown":
@@ -115,7 +134,7 @@ class PickList(Widget, can_focus=True):
             else:
                 self.cursor = max(self.cursor - 1, 0)
         elif key in ("enter", "ctrl+j"):
-            self.pick(self.cursor)
+            await self._pick_and_settle(self.cursor)
         else:
             handled = False
         if handled:
