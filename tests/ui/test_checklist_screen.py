@@ -71,7 +71,7 @@ async def test_chuck_job_walked_with_enter_one_undone(make_app):
         assert unchecked(app) == []
         assert "Every item is checked" in screen_text(app)
         done = app.state.checklist_done()
-        assert len(done) == items and "carrier" not in done
+        assert len(done) == items and not any("Carrier" in d for d in done)
         last_key = app.state.checklist[-1].text
         await pilot.press("slash")
         await pilot.pause()
@@ -94,7 +94,8 @@ async def test_between_centres_job_has_carrier_and_relief(make_app):
         assert "Carrier tied to its driving peg" in text
         assert "Thread relief cut" in text and "Stopping point" not in text
         await pilot.press("enter", "enter", "enter", "enter")  # the fourth is the carrier
-        assert "carrier" in app.state.checklist_done()
+        assert "Carrier tied to its driving peg so the work cannot slip" in \
+            app.state.checklist_done()
 
 
 async def test_compound_as_a_bed_zeroed_scale_reads(make_app):
@@ -116,6 +117,19 @@ async def test_compound_from_the_counter_values_when_recorded(make_app):
                           "compound_angle_set": 30.0})
         app.screen.redraw()
         assert "Compound set to 30 deg on its scale" in screen_text(app)
+
+
+async def test_tick_comes_back_when_the_set_up_changes_what_the_item_says(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await set_up(app, pilot)
+        await pilot.press("enter", "enter", "enter")       # centre height, tool, compound 29.5
+        assert "3 of" in screen_text(app)
+        app.record_setup({"method": "flank", "compound_angle_deg": 30.0,
+                          "compound_angle_set": 30.0})     # the counter changes the compound
+        app.screen.redraw()
+        line = next(ln for ln in item_lines(app) if "Compound set to 30 deg" in ln)
+        assert line.startswith(" ▸ [ ]") and "2 of" in screen_text(app)
 
 
 async def test_whitworth_compound_and_left_hand_item(make_app):

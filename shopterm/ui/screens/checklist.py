@@ -4,7 +4,10 @@ The items come from ``shopterm.lathe.checklist.build_checklist`` with this job's
 work is held and where the tool runs out (the set-up screen), the compound setting as this
 lathe's scale reads it (from the set-up when the counter has recorded it, else worked out for
 the default modified-flank method), and the half-nut plan from the thread dial. Each Enter
-records one ``checklist_item``; ``/`` takes the last one back (asking first).
+records one ``checklist_item`` whose ``item`` is the item's text as shown, so a tick stands
+for exactly what was checked: if the set-up changes what an item says (another compound
+setting, another half-nut plan), that item comes back unchecked. ``/`` takes the last one back
+(asking first).
 """
 
 from __future__ import annotations
@@ -106,6 +109,7 @@ class ChecklistScreen(ShopScreen):
     def job_changed(self) -> None:
         """An entry was taken back: redraw from the record."""
         self.refresh_chrome()
+        self.say("")
         self.redraw()
 
     # -- from the record -----------------------------------------------------------------------
@@ -123,7 +127,7 @@ class ChecklistScreen(ShopScreen):
     def current(self) -> ChecklistItem | None:
         """Return the first item not yet checked, or None when all are."""
         done = self.done()
-        return next((it for it in self.items() if it.key not in done), None)
+        return next((it for it in self.items() if it.text not in done), None)
 
     # -- drawing -------------------------------------------------------------------------------
     def redraw(self) -> None:
@@ -143,16 +147,16 @@ class ChecklistScreen(ShopScreen):
             return
         done = self.done()
         here = self.current()
-        n_done = sum(it.key in done for it in items)
+        n_done = sum(it.text in done for it in items)
         head.update(f"{spec.designation}: {n_done} of {len(items)} checked   (! = safety)")
         lines = []
         for it in items:
             is_here = here is not None and it.key == here.key
-            mark = escape(DONE_MARK if it.key in done else TODO_MARK)
+            mark = escape(DONE_MARK if it.text in done else TODO_MARK)
             text = escape(it.text)
             if is_here:
                 text = f"[reverse]{text}[/]"
-            elif it.key in done:
+            elif it.text in done:
                 text = f"[dim]{text}[/]"
             if it.caution:
                 text = f"[$warning]{text}[/]"
@@ -178,7 +182,7 @@ class ChecklistScreen(ShopScreen):
         if here is None:
             self.say("Every item is checked: + goes on to the pass counter.")
             return
-        if self.app.record("checklist_item", {"item": here.key, "done": True}) is None:
+        if self.app.record("checklist_item", {"item": here.text, "done": True}) is None:
             self.say("Not recorded (see the note); the item stays unchecked.", error=True)
             return
         self.redraw()
@@ -190,7 +194,7 @@ class ChecklistScreen(ShopScreen):
         if problem:
             self.say(problem, error=True)
             return
-        left = [it for it in self.items() if it.key not in self.done()]
+        left = [it for it in self.items() if it.text not in self.done()]
         if left:
             self.say(f"{len(left)} still to check: Enter checks the highlighted one "
                      "(* opens the menu to go elsewhere).", error=True)

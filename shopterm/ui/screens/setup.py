@@ -391,8 +391,7 @@ class SetupScreen(ShopScreen):
         summary = self.query_one("#summary", Static)
         choices = self.query_one("#choices", ChoiceList)
         for wid in ("#question", "#header", "#detail", "#caution", "#others"):
-            self.query_one(wid, Static).update("")
-        self.query_one("#header", Static).display = False
+            self.put(wid, "")
         if spec is None:
             self.query_one("#thread", Static).update("No thread chosen yet.")
             summary.update("Choose a thread first: - goes back to the thread screen.")
@@ -408,11 +407,18 @@ class SetupScreen(ShopScreen):
         summary.update(self.summary_text())
         if self.found is None:
             choices.display = False
-            self.query_one("#question", Static).update("Working out the change gears…")
+            self.put("#question", "Working out the change gears…")
             return
         steps = self.steps()
         self.step = min(self.step, len(steps) - 1)
         getattr(self, f"show_{steps[self.step]}")(choices, steps)
+
+
+    def put(self, wid: str, content) -> None:
+        """Show ``content`` in one of the lines under the list; an empty line takes no row."""
+        line = self.query_one(wid, Static)
+        line.update(content)
+        line.display = bool(content) or wid in ("#question", "#detail")
 
     def summary_text(self) -> Text:
         out = Text(no_wrap=True, overflow="ellipsis")
@@ -451,7 +457,7 @@ class SetupScreen(ShopScreen):
     def set_list(self, choices: ChoiceList, title: str, items: list, index: int | None,
                  steps: list[str]) -> None:
         n = self.step + 1
-        self.query_one("#question", Static).update(
+        self.put("#question", 
             f"Question {n} of {len(steps) - 1}: {title}")
         choices.display = True
         choices.set_items(items)
@@ -462,22 +468,21 @@ class SetupScreen(ShopScreen):
         lathe = self.app.lathe
         if not self.trains:
             choices.display = False
-            self.query_one("#question", Static).update("Change gears: none found")
+            self.put("#question", "Change gears: none found")
             return
         self.set_list(choices, "change gears (best first)",
                       [(train_row(t), i) for i, t in enumerate(self.trains)], self.train_i, steps)
-        self.query_one("#header", Static).update(GEAR_HEADER)
-        self.query_one("#header", Static).display = True
-        self.query_one("#detail", Static).update(
+        self.put("#header", GEAR_HEADER)
+        self.put("#detail", 
             train_placement(self.train(), bool(lathe.gearbox)))
-        self.query_one("#caution", Static).update(
+        self.put("#caution", 
             "Change gears only with the lathe switched off at its isolator.")
 
     def show_held(self, choices, steps) -> None:
         self.set_list(choices, "how is the work held?",
                       [(words, v) for words, v in HELD],
                       None if self.held is None else [v for _, v in HELD].index(self.held), steps)
-        self.query_one("#detail", Static).update(
+        self.put("#detail", 
             "Between centres the checklist adds tying the carrier to its driving peg.")
 
     def show_runout(self, choices, steps) -> None:
@@ -485,25 +490,25 @@ class SetupScreen(ShopScreen):
                       [(words, v) for words, v in RUNOUT],
                       None if self.relief is None else [v for _, v in RUNOUT].index(self.relief),
                       steps)
-        self.query_one("#detail", Static).update(
+        self.put("#detail", 
             "With no relief the tool must come out at the same mark every pass.")
 
     def show_indexing(self, choices, steps) -> None:
         methods = self.methods()
         if not methods:
             choices.display = False
-            self.query_one("#question", Static).update(
+            self.put("#question", 
                 f"Question {self.step + 1} of {len(steps) - 1}: indexing — no method works")
-            self.query_one("#detail", Static).update(
+            self.put("#detail", 
                 "\n".join(m.text for m in self.not_usable()[:4]))
             return
         current = self.method()
         self.set_list(choices, f"index to the next of {self.app.spec.starts} starts by",
                       [(m.text, m.key) for m in methods], methods.index(current), steps)
-        self.query_one("#detail", Static).update(Text(current.detail, overflow="ellipsis"))
+        self.put("#detail", Text(current.detail, overflow="ellipsis"))
         others = ", ".join(m.title.lower() for m in self.not_usable())
         if others:
-            self.query_one("#others", Static).update(f"Not here: {others}.")
+            self.put("#others", f"Not here: {others}.")
 
     def show_review(self, choices, steps) -> None:
         choices.display = False
@@ -511,15 +516,15 @@ class SetupScreen(ShopScreen):
                                               (self.relief, "where the tool runs out"))
                    if value is None]
         if missing:
-            self.query_one("#question", Static).update("Still to answer: " + " and ".join(missing))
-            self.query_one("#detail", Static).update("- goes back to the questions.")
+            self.put("#question", "Still to answer: " + " and ".join(missing))
+            self.put("#detail", "- goes back to the questions.")
             return
-        self.query_one("#question", Static).update("All answered")
+        self.put("#question", "All answered")
         if self.recorded():
             words = "This set-up is recorded. + goes on to the checklist."
         else:
             words = "Enter records this set-up; then + goes on to the checklist."
-        self.query_one("#detail", Static).update(
+        self.put("#detail", 
             words + "\n- goes back to change an answer.")
 
     # -- keys ----------------------------------------------------------------------------------
