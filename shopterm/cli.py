@@ -21,7 +21,9 @@ def _load(module: str):
         raise
 
 
-def build_parser() -> argparse.ArgumentParser:
+def build_parser(with_commands: bool = True) -> argparse.ArgumentParser:
+    """Return the argument parser; ``with_commands=False`` leaves the calc/export modules
+    unloaded (starting the app does not pay for importing them)."""
     parser = argparse.ArgumentParser(
         prog="shopterm",
         description="Screw cutting on a manual lathe: thread limits, set-up, pass counter, "
@@ -33,6 +35,8 @@ def build_parser() -> argparse.ArgumentParser:
                         help="validate a config file (default: the one that would be used); "
                              "exit 0 if good, 2 if not")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    if not with_commands:
+        return parser
     calc = sub.add_parser("calc", help="answer one question and exit")
     calc_sub = calc.add_subparsers(dest="calc", metavar="QUESTION", required=True)
     for name in CALC_COMMANDS:
@@ -45,11 +49,29 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
+_TAKES_VALUE = ("--config", "--data-dir", "--check-config")
+
+
+def _wants_command(argv: list[str]) -> bool:
+    """Return whether ``argv`` names a command (or asks for help), beyond starting the app."""
+    after_option = False
+    for a in argv:
+        if a in ("-h", "--help"):
+            return True
+        if after_option:
+            after_option = False
+        elif a in _TAKES_VALUE:
+            after_option = True
+        elif not a.startswith("-"):
+            return True
+    return False
+
+
 def main(argv: list[str] | None = None) -> int:
     from shopterm.errors import ShoptermError
 
     argv = sys.argv[1:] if argv is None else argv
-    parser = build_parser()
+    parser = build_parser(with_commands=_wants_command(argv))
     args = parser.parse_args(argv)
     try:
         if args.check_config is not None:
