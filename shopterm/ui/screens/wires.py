@@ -228,7 +228,11 @@ class WiresScreen(ShopScreen):
 
     @on(KeypadEntry.Changed, "#reading")
     def entry_changed(self, event: KeypadEntry.Changed) -> None:
+        if type(event) is not KeypadEntry.Changed:   # Enter, not typing
+            return
         self.draft = event.value
+        if event.value and self.query_one("#message", Static).has_class("info"):
+            self.say("")    # "reading taken" is old news once the next one is being typed
 
     def on_screen_resume(self) -> None:
         super().on_screen_resume()
