@@ -442,3 +442,15 @@ def test_chart_rows_move_right_as_pd_falls():
     assert cols[0] < cols[1] < cols[2]
     assert "×2" in rows[1] and rows[0].startswith("pass 1")
     assert chart_rows([], 8.994, 8.862, "mm") == []
+
+
+async def test_changing_from_internal_to_external_brings_the_entry_back(make_app):
+    app = mm_app(make_app)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_wires(app, pilot, "M10x1.5-6H")
+        assert not app.screen.query_one("#reading").display
+        app.thread_chosen(parse("M10x1.5-6g"))
+        app.screen.job_changed()
+        await pilot.pause()
+        assert app.screen.query_one("#reading").display
+        assert "Reading over wires [mm]" in screen_text(app)

@@ -350,6 +350,8 @@ class WiresScreen(ShopScreen):
     def draw_external(self) -> None:
         from shopterm.cutting.wires import MEASURE_CAUTION, band_over_wires
         spec, state = self.app.spec, self.app.state
+        if self.mode in ("fit", "fit_outcome"):   # the thread was changed from an internal one
+            self.mode = "reading"
         lim = self.limits()
         wire, wire_text, problem = self.wire()
         band = band_over_wires(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min, wire)
