@@ -267,6 +267,7 @@ class SetupScreen(ShopScreen):
     # -- loading -------------------------------------------------------------------------------
     def on_screen_resume(self) -> None:
         super().on_screen_resume()
+        self.say("")
         self.load()
 
     def job_changed(self) -> None:
