@@ -118,7 +118,11 @@ class ChecklistScreen(ShopScreen):
         spec, setup = self.app.spec, self.app.setup_values()
         if setup_problem(spec, setup):
             return ()
-        return items_for(spec, self.app.lathe, setup)
+        try:
+            return items_for(spec, self.app.lathe, setup)
+        except ShoptermError as exc:      # shown by redraw(); nothing to tick meanwhile
+            self.say(str(exc), error=True)
+            return ()
 
     def done(self) -> frozenset[str]:
         state = self.app.state
