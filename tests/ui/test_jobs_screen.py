@@ -70,8 +70,8 @@ async def test_list_shows_each_job_with_thread_status_passes_and_time(make_app, 
         lines = screen_lines(app)
         assert len(lines) == 24 and all(len(line) <= 80 for line in lines)
         text = screen_text(app)
-        row_m10 = next(line for line in lines if "M10x1.5-6g" in line)
-        row_unc = next(line for line in lines if "1/4-20 UNC-2A" in line)
+        row_m10 = next(line for line in lines[1:] if "M10x1.5-6g" in line)
+        row_unc = next(line for line in lines[1:] if "1/4-20 UNC-2A" in line)
         # passes: 3 written by seed() for the first job, 0 for the second
         assert row_m10.split()[1:5] == [str(ids[0]), "M10x1.5-6g", "open", "3"]
         assert row_unc.split()[1:6] == [str(ids[1]), "1/4-20", "UNC-2A", "open", "0"]
@@ -99,6 +99,12 @@ async def test_open_picks_the_job_and_shows_its_screen(make_app, tmp_path):
         assert app.spec.designation == "M10x1.5-6g"
         assert app.current_name == "thread"            # where it stopped (seed's screen entry)
         assert app.state.next_pass == 3                # resumes after pass 2
+        app.goto("jobs")
+        await pilot.pause()
+        rows = screen_lines(app)[1:]                   # below the status line
+        row = next(line for line in rows if "M10x1.5-6g" in line)
+        assert row.rstrip().endswith("(open now)") and len(row) <= 80
+        assert "(open now)" not in next(line for line in rows if "M8x1.25" in line)
 
 
 async def test_finish_then_carry_on_is_recorded_and_undone(make_app, tmp_path):
@@ -111,7 +117,7 @@ async def test_finish_then_carry_on_is_recorded_and_undone(make_app, tmp_path):
         assert f"Job {jid} finished" in screen_text(app)
         assert on_disk(data, jid).finished
         await pilot.press("minus")                     # back to the list
-        row = next(line for line in screen_lines(app) if "M10x1.5-6g" in line)
+        row = next(line for line in screen_lines(app)[1:] if "M10x1.5-6g" in line)
         assert "finished" in row
         await pilot.press(pick_number(app, jid))
         await pilot.press(pick_option(app, "unfinish"))
@@ -223,8 +229,7 @@ async def test_not_saving_is_shown_and_retry_writes_what_was_kept(make_app, tmp_
         conn.error = "database or disk is full"
         assert app.record("pass_cut", {"radial_cum_mm": 0.1}) is not None   # kept in memory
         app.goto("jobs")
-        await pilot.pause()
-        await pilot.press("minus")                       # from the job's options to the list
+        await pilot.pause()                              # back on the list of jobs
         text = screen_text(app)
         assert "NOT being saved" in text and "the disk is full" in text
         assert app.screen.query_one("#status").has_class("unsaved")   # the red status line

@@ -146,7 +146,10 @@ class JobsScreen(ShopScreen):
                 state = self.session(info.id).state
             except ShoptermError:
                 state = None
-            items.append((job_row(info, state), ("job", info.id)))
+            row = job_row(info, state)
+            if getattr(self.app, "job", None) is not None and self.app.job.job_id == info.id:
+                row += "  (open now)"
+            items.append((row, ("job", info.id)))
         items.append(("hide archived jobs" if self.show_archived else "show archived jobs too",
                       ("archived", None)))
         return items
@@ -255,7 +258,9 @@ class JobsScreen(ShopScreen):
                 self.say(f"Job {job_id} is archived: pick 'bring it back' first, then open it.",
                          error=True)
                 return
+            self.picked_id = None               # coming back here shows the list again
             if not self.app.open_job(job_id):
+                self.show_list()
                 self.say(f"Job {job_id} could not be opened.", error=True)
             return
         if what in EXPORTS:
