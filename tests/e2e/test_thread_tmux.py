@@ -224,7 +224,7 @@ def test_unc_formula_helper_matches_a_second_printed_size():
 
 
 def test_operator_keys_reach_the_app_and_quit_from_the_menu(tmux_shopterm):
-    pane = tmux_shopterm()
+    pane = tmux_shopterm(keep_open=True)      # to read the exit status
     pane.send("*")
     text = pane.wait_for("Go to")
     show("* opens the menu", text)
@@ -347,7 +347,7 @@ def test_app_refuses_to_start_with_a_broken_config(installed_shopterm, tmp_path,
 def test_app_in_tmux_refuses_a_broken_config_and_says_why(tmux_shopterm, tmp_path):
     path, line = _broken(tmp_path, BROKEN[0][1])
     pane = tmux_shopterm("--config", str(path), ready=None, keep_open=True)
-    pane.wait_for(tmux.EXIT_LINE.format(2))
+    assert pane.wait_exit() == 2
     text = pane.capture(joined=True)         # the message wraps at 80 columns
     show("broken config in tmux", text)
     flat = " ".join(text.split())

@@ -92,6 +92,7 @@ class Pane:
         self.argv = argv
         self.target = f"{socket}:0.0"
         self.captures: list[str] = []      # every pane capture taken, oldest first
+        self.keep_open = False             # run under sh, pane kept after the command ends
 
     # -- tmux itself -------------------------------------------------------------------------
     def tmux(self, *args: str, check: bool = True) -> subprocess.CompletedProcess:
@@ -119,7 +120,9 @@ class Pane:
         """Return the exit status if the program has stopped, else None.
 
         A program killed by a signal gives minus the signal number; ``UNKNOWN_STATUS`` when tmux
-        has seen the pane end but not (yet) the status.
+        has seen the pane end but not the status: tmux 3.3 sometimes never records it when the
+        program closes the terminal just before it exits. Start with ``keep_open`` and wait for
+        ``EXIT_LINE`` where the status matters.
         """
         dead, status, signal = (self._display("#{pane_dead}|#{pane_dead_status}|"
                                               "#{pane_dead_signal}").split("|") + ["", ""])[:3]
@@ -195,7 +198,13 @@ class Pane:
         return self.wait_for(lambda t: text not in t, timeout)
 
     def wait_exit(self, timeout: float = TIMEOUT) -> int:
-        """Return the program's exit status once it has stopped; else fail."""
+        """Return the program's exit status (or ``UNKNOWN_STATUS``) once it has stopped; else fail.
+
+        With ``keep_open`` the pane never ends: this reads the status from ``EXIT_LINE``.
+        """
+        if self.keep_open:
+            ended = re.compile(re.escape(EXIT_LINE).replace(r"\{\}", r"(-?\d+)"))
+            return int(ended.search(self.wait_for(ended, timeout))[1])
         deadline = time.monotonic() + timeout
         while (status := self.dead()) is None:
             if time.monotonic() > deadline:
@@ -209,8 +218,17 @@ class Pane:
         return status
 
     def kill(self) -> None:
-        """Stop the program and this pane's tmux server (nothing else is touched)."""
+        """Stop the program and this pane's tmux server, and remove its socket file.
+
+        Nothing else is touched: the server is this pane's own (``-L`` socket).
+        """
+        try:
+            path = self.tmux("display-message", "-p", "#{socket_path}", check=False).stdout
+        except subprocess.TimeoutExpired:
+            path = ""
         self.tmux("kill-server", check=False)
+        if path.strip():
+            Path(path.strip()).unlink(missing_ok=True)
 
 
 def framed(text: str, title: str = "") -> str:
@@ -247,6 +265,7 @@ def start(workdir: Path, args: Iterable[str] = (), *, term: str = "xterm-256colo
         argv = ["/bin/sh", "-c", f'"$@"; echo "{line}"; exec sleep 600', "sh", *argv]
     socket = f"shopterm-e2e-{os.getpid()}-{uuid.uuid4().hex[:8]}"
     pane = Pane(socket, workdir, argv)
+    pane.keep_open = keep_open
     full_env = app_env(workdir, term=term, extra=env)
     e_args: list[str] = []
     for k, v in full_env.items():
