@@ -24,7 +24,8 @@ from shopterm.ui.widgets.picklist import PickList
 
 #: Export format → (file suffix, words on screen).
 EXPORTS = {"card": ("txt", "job card"), "csv": ("csv", "CSV"), "json": ("json", "JSON")}
-LIST_TITLE = "   job  thread               status     passes  last entry"
+#: Column heads over the rows ``job_row`` makes (the pick list puts "N " before each row).
+LIST_TITLE = f"  {'job':>4}  {'thread':<19}  {'status':<9}  {'passes':>6}  last entry"
 
 
 def short_time(at: str | None) -> str:
