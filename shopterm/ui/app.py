@@ -154,7 +154,10 @@ class ShoptermApp(App):
         if name not in self._screens_by_name:
             module, cls_name, _ = REGISTRY[name]
             cls = getattr(importlib.import_module(module), cls_name)
-            self._screens_by_name[name] = cls()
+            screen = cls()
+            # Installed, so switching away keeps it (and what was typed in it) alive.
+            self.install_screen(screen, name=f"shop-{name}")
+            self._screens_by_name[name] = screen
         return self._screens_by_name[name]
 
     def goto(self, name: str) -> None:

@@ -140,10 +140,6 @@ def test_typed_designation_shows_iso_965_2_limits(tmux_shopterm, tmp_path, term)
         assert missing_glyphs(text) == set(), text
 
 
-@pytest.mark.xfail(strict=False, reason=(
-    "known app bug, reported: a designation arriving in one burst (a paste, a fast typist) "
-    "loses its digits to the pick list, because ThreadScreen.on_key moves the focus to the "
-    "entry with focus(), which takes effect only after the keys already read are handled"))
 def test_designation_typed_in_one_burst(tmux_shopterm):
     pane = tmux_shopterm()
     pane.paste("M10x1.5-6g")

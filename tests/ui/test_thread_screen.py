@@ -57,3 +57,14 @@ async def test_back_key_steps_back_in_walk(make_app):
         assert "Thread family" in screen_text(app)
         await pilot.press("plus")                   # forward refused without a thread
         assert "Choose a thread first" in screen_text(app)
+
+
+async def test_enter_after_a_typed_designation_uses_it(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await pilot.press(*"M6x1-6g")
+        await pilot.press("enter")            # look it up
+        assert "5.324" in screen_text(app)    # ISO 965-2, M6x1-6g d2 max
+        await pilot.press("enter")            # use it
+        assert app.spec is not None and app.spec.designation == "M6x1-6g"
+        assert app.state.current_designation == "M6x1-6g"

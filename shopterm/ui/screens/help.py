@@ -36,7 +36,7 @@ def help_text() -> Text:
     for name, (module, cls_name, title) in REGISTRY.items():
         try:
             cls = getattr(importlib.import_module(module), cls_name)
-        except (ImportError, AttributeError):
+        except Exception:  # a screen that cannot load must not take the help down with it
             continue
         own = hints_from_bindings(cls.__dict__.get("BINDINGS", []))
         lines = own + list(getattr(cls, "HELP", ()))

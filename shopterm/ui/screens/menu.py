@@ -12,6 +12,11 @@ from shopterm.ui.screens import REGISTRY
 from shopterm.ui.widgets.picklist import PickList
 
 
+#: Screens reached from another screen rather than from the menu (keeps the menu to nine
+#: entries, one digit each): the tool form opens from the pass counter (8).
+NOT_IN_MENU = ("toolform",)
+
+
 class MenuScreen(ModalScreen[str | None]):
     """Numbered list of screens; a digit goes there."""
 
@@ -22,7 +27,8 @@ class MenuScreen(ModalScreen[str | None]):
     BINDINGS = [keys.bind(keys.MENU + "," + keys.BACK, "dismiss_menu", "close")]
 
     def compose(self) -> ComposeResult:
-        items = [(title, name) for name, (_, _, title) in REGISTRY.items()]
+        items = [(title, name) for name, (_, _, title) in REGISTRY.items()
+                 if name not in NOT_IN_MENU]
         items += [("Help", "help"), ("Quit (the record is saved)", "quit")]
         with Vertical():
             yield Static("[b]Go to[/b]  (digit, or ↑↓ Enter;  * or - closes)")

@@ -132,7 +132,9 @@ class ThreadScreen(ShopScreen):
 
     def on_mount(self) -> None:
         super().on_mount()
-        self.query_one("#choices", PickList).focus()
+        picks = self.query_one("#choices", PickList)
+        picks.type_into(self.query_one("#designation", KeypadEntry))
+        picks.focus()
         self.show_step()
 
     # -- typed designation -------------------------------------------------------------------
@@ -162,6 +164,7 @@ class ThreadScreen(ShopScreen):
         self.walk.snapshot()
         self.walk.spec = spec
         self.remember(spec)
+        self.query_one("#choices", PickList).focus()   # Enter now means "use it"
         self.say(f"{spec.designation}: Enter uses it, + goes on to the set-up.")
         self.show_step()
 

@@ -72,29 +72,32 @@ class KeypadEntry(Widget, can_focus=True):
     def _accepts(self, ch: str) -> bool:
         return ch in (TEXT_CHARS if self.text_mode else NUMBER_CHARS)
 
-    async def _on_key(self, event: events.Key) -> None:
-        key = event.key
-        ch = event.character
-        if key in ("full_stop", "decimal"):
-            ch = "."
+    def feed(self, key: str, character: str | None) -> bool:
+        """Apply one key as this entry would; return whether the entry took it.
+
+        Also used by a ``PickList`` that hands on keys typed ahead into its entry.
+        """
+        ch = "." if key in ("full_stop", "decimal") else character
         if key in ("enter", "ctrl+j"):
-            event.stop()
-            event.prevent_default()
             self.post_message(self.Submitted(self, self.value))
-            return
+            return True
         if key in ("backspace", "delete", "ctrl+h"):
-            if self.value:
-                event.stop()
-                event.prevent_default()
-                self.value = self.value[:-1]
-            return  # an empty entry lets Backspace go to the screen
+            if not self.value:
+                return False  # an empty entry lets Backspace go to the screen
+            self.value = self.value[:-1]
+            return True
         if ch and len(ch) == 1 and self._accepts(ch) and key not in ("plus", "asterisk"):
             if not self.text_mode and ch in "-/":
-                return
-            event.stop()
-            event.prevent_default()
+                return False
             if len(self.value) < self.max_length:
                 self.value += ch
+            return True
+        return False
+
+    async def _on_key(self, event: events.Key) -> None:
+        if self.feed(event.key, event.character):
+            event.stop()
+            event.prevent_default()
             return
         await super()._on_key(event)
 

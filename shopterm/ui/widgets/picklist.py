@@ -46,6 +46,19 @@ class PickList(Widget, can_focus=True):
         self.items: list[tuple[str, Any]] = list(items)
         self.columns = columns
         self.title = title
+        self.typing_target = None      # a KeypadEntry (text mode) that a typed letter starts
+        self._typing = False
+
+    def type_into(self, entry) -> None:
+        """Let a letter typed here start typing into ``entry`` (a designation field).
+
+        Keys typed ahead after that letter follow it into the entry, in order, even before
+        the focus has moved (a paste or a fast typist sends them in one burst).
+        """
+        self.typing_target = entry
+
+    def on_focus(self) -> None:
+        self._typing = False
 
     def set_items(self, items: Sequence[tuple[str, Any]], title: str = "") -> None:
         """Replace the choices and go back to the first page."""
@@ -65,18 +78,19 @@ class PickList(Widget, can_focus=True):
 
     def render(self) -> Text:
         out = Text()
-        if self.title:
+        if self.title or self.pages > 1:
             out.append(self.title, style="bold")
             if self.pages > 1:
                 out.append(f"   page {self.page + 1}/{self.pages}, 0 = next page", style="dim")
             out.append("\n")
         items = self.page_items()
-        width = max((len(lbl) for lbl, _ in items), default=4) + 4
+        width = self._cell_width()
+        columns = self._columns_that_fit()
         for i, (lbl, _) in enumerate(items):
             style = "reverse" if (i == self.cursor and self.has_focus) else ""
             out.append(f"{i + 1} ", style="bold")
             out.append(lbl.ljust(width - 2), style=style)
-            if (i + 1) % self.columns == 0 and i + 1 < len(items):
+            if (i + 1) % columns == 0 and i + 1 < len(items):
                 out.append("\n")
             else:
                 out.append("  ")
@@ -84,9 +98,19 @@ class PickList(Widget, can_focus=True):
             out.append("(nothing to choose)", style="dim")
         return out
 
+    def _cell_width(self) -> int:
+        return max((len(lbl) for lbl, _ in self.page_items()), default=4) + 4
+
+    def _columns_that_fit(self, width: int | None = None) -> int:
+        """Return how many columns of items fit the width (never more than asked for)."""
+        width = width if width is not None else self.content_size.width
+        if width <= 0:
+            return self.columns
+        return max(1, min(self.columns, (width + 2) // (self._cell_width() + 2)))
+
     def get_content_height(self, container, viewport, width) -> int:
-        rows = -(-max(1, len(self.page_items())) // self.columns)
-        return rows + (1 if self.title else 0)
+        rows = -(-max(1, len(self.page_items())) // self._columns_that_fit(width))
+        return rows + (1 if (self.title or self.pages > 1) else 0)
 
     def pick(self, index_on_page: int) -> bool:
         """Tell the screen that item ``index_on_page`` was picked; False if there is none."""
@@ -117,6 +141,16 @@ class PickList(Widget, can_focus=True):
 
     async def _on_key(self, event: events.Key) -> None:
         key = event.key
+        target = self.typing_target
+        ch = event.character
+        if target is not None and (self._typing or (ch and (ch.isalpha() or ch == "#"))):
+            self._typing = True
+            if target.feed(key, ch):
+                event.stop()
+                event.prevent_default()
+                if self.app.focused is self:
+                    self.app.set_focus(target)
+                return
         handled = True
         if key in "123456789" and len(key) == 1:
             await self._pick_and_settle(int(key) - 1)
