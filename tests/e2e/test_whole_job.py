@@ -1,0 +1,532 @@
+"""Issue 8: whole jobs at the machine, keypad keys only, on the installed ``shopterm`` in tmux.
+
+Each test drives the installed command at 80x24 with the keys a numeric keypad sends through
+tmux (digits, ``.``, keypad Enter as ``C-j``, Backspace, ``+ - * /``; never a letter):
+
+1. the thread by the list walk (digits; ``0`` turns a page), two starts by the walk's option;
+2. the demo lathe's set-up: change gears (the lead they make is re-derived with
+   ``fractions.Fraction``), work holding, run-out, indexing for two starts; Enter records it;
+3. the checklist, every item walked with Enter (the compound setting and half-nut plan read);
+4. the counter: the blank's OD typed with digits and ``.``, then the passes cut as shown;
+5. wire readings from ``thread_sim.ThreadSim``, which turns the dial marks actually set into
+   radial depth and predicts the reading over the wire the screen names; the screen's remaining
+   feed is followed (back to the counter, which replans from the reading) until the reading is
+   inside the class;
+6. the job card, exported from the jobs screen by keypad or by ``shopterm export last``, and
+   its numbers checked: the final PD inside the published band, every pass listed.
+
+Every screen along the way is captured; the captures are written under pytest's ``tmp_path``
+and printed (``pytest -s tests/e2e/test_whole_job.py`` shows them; so does a failure).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+import subprocess
+import sys
+import tomllib
+from fractions import Fraction
+from pathlib import Path
+
+import pytest
+
+from shopterm.job.state import fold
+from shopterm.job.store import Store
+from tests.e2e import tmux
+from tests.e2e.thread_sim import INCH, ThreadSim, radial_from_dial
+
+pytestmark = pytest.mark.e2e
+
+SAMPLE = Path(__file__).resolve().parents[2] / "sample_config.toml"
+WAIT = 20.0                        # longest one screen may take to appear [s] (slow CI)
+ENTER = tmux.KEYPAD_ENTER
+KEYPAD = set("0123456789.+-*/") | {ENTER, "BSpace"}
+
+PASS_OF = re.compile(r"\bPass (\d+) of (\d+)\b")
+SPRING = re.compile(r"\bSpring pass (\d+) of (\d+)\b")
+ALL_CUT = re.compile(r"\bAll (\d+) passes cut\b")
+DIAL = re.compile(r"(COMPOUND|CROSS-SLIDE) dial: set mark (\S+)")
+DIVS = re.compile(r"\(([\d.]+) div from the zero")
+NUM = r"(-?\d+(?:\.\d+)?)"
+
+
+# ---------------------------------------------------------------------------------------------
+# The rig: keypad keys only, every screen captured
+
+class Machine:
+    """One shopterm in tmux at 80x24, pressed by keypad keys only; every screen kept."""
+
+    def __init__(self, workdir: Path, config: Path, data: Path) -> None:
+        self.workdir, self.config, self.data = workdir, config, data
+        self.pane = tmux.start(workdir / "pane", ["--data-dir", str(data)],
+                               env={"SHOPTERM_CONFIG": str(config)})
+        self.shots: list[tuple[str, str]] = []
+
+    def keys(self, *keys: str) -> None:
+        """Press keypad keys (a string of digits/point/operators is pressed key by key)."""
+        for k in keys:
+            if k not in KEYPAD:
+                assert all(ch in KEYPAD for ch in k), f"not a keypad key: {k!r}"
+            self.pane.send(k)
+
+    def wait(self, want, timeout: float = WAIT) -> str:
+        return self.pane.wait_for(want, timeout)
+
+    def shot(self, title: str, text: str | None = None) -> str:
+        """Keep the screen (now, or ``text`` just waited for) under ``title``; return it."""
+        text = self.pane.capture() if text is None else text
+        self.shots.append((title, text))
+        return text
+
+    def write_shots(self, folder: Path) -> None:
+        folder.mkdir(parents=True, exist_ok=True)
+        for i, (title, text) in enumerate(self.shots, 1):
+            name = re.sub(r"[^a-z0-9]+", "-", title.lower()).strip("-")[:40]
+            (folder / f"{i:02d}-{name}.txt").write_text(text, encoding="utf-8")
+            print(tmux.framed(text, f" {i:02d} {title} "))
+
+    def close(self) -> None:
+        self.pane.kill()
+
+
+def number_of(text: str, label: str, heading: str) -> str | None:
+    """Return the digit shown before ``label`` in the numbered list under ``heading``."""
+    lines = text.splitlines()
+    start = next((i for i, ln in enumerate(lines) if heading in ln), None)
+    if start is None:
+        return None
+    pattern = re.compile(r"(?:^|\s)(\d) " + re.escape(label) + r"(?=\s{2}|\s*$)")
+    for ln in lines[start + 1:]:
+        if m := pattern.search(ln):
+            return m[1]
+    return None
+
+
+def pick(m: Machine, heading: str, label: str, title: str, pages: int = 8) -> None:
+    """Press the digit of ``label`` in the list under ``heading``, turning pages with 0."""
+    text = m.wait(heading)
+    for _ in range(pages):
+        digit = number_of(text, label, heading)
+        if digit is not None:
+            m.shot(title, text)
+            m.keys(digit)
+            return
+        before = text
+        m.keys("0")
+        text = m.wait(lambda t: t != before, 5)
+    raise AssertionError(f"{label!r} not in {pages} pages of {heading!r}:\n{tmux.framed(text)}")
+
+
+def find(pattern: str, text: str, what: str) -> re.Match:
+    m = re.search(pattern, text)
+    assert m, f"no {what} on the screen:\n{tmux.framed(text)}"
+    return m
+
+
+# ---------------------------------------------------------------------------------------------
+# The configs: the sample's demo lathe, shown in mm or in inches
+
+def demo_config(tmp: Path, units: str) -> Path:
+    """Return the sample config (the demo lathe) with the display in ``units`` and a micrometer
+    that reads 0.001 mm (metric) or 0.0001 in (inch), as a shop with either would have."""
+    text = SAMPLE.read_text(encoding="utf-8")
+    text = re.sub(r'(?m)^units = "\w+"', f'units = "{units}"', text, count=1)
+    res = '"0.001 mm"' if units == "mm" else '"0.0001 in"'
+    text = re.sub(r'(?m)^resolution = "[^"]*"', f"resolution = {res}", text, count=1)
+    path = tmp / f"demo-{units}.toml"
+    path.write_text(text, encoding="utf-8")
+    return path
+
+
+def length_mm(text: str) -> float:
+    """Return a config length such as ``0.001 in`` in mm."""
+    value, unit = text.split()
+    return float(Fraction(value)) * (INCH if unit == "in" else 1.0)
+
+
+def lathe_facts(config: Path) -> dict:
+    """Return what the operator knows of the demo lathe from its config (no app code)."""
+    cfg = tomllib.loads(config.read_text(encoding="utf-8"))
+    tool = cfg["tool"]
+    kind = "radius" if "nose_radius" in tool else "flat"
+    return {"leadscrew_tpi": cfg["leadscrew"]["tpi"],
+            "compound_div_mm": length_mm(cfg["compound"]["division"]),
+            "cross_div_mm": length_mm(cfg["cross_slide"]["division"]),
+            "tip_kind": kind, "tip_mm": length_mm(tool["nose_radius" if kind == "radius"
+                                                       else "flat"]),
+            "resolution_mm": length_mm(cfg["micrometer"]["resolution"]),
+            "wires_mm": [length_mm(w.get("measured", w["marked"])) for w in cfg["wires"]],
+            "spindle_gear": cfg["indexing"]["spindle_gear"],
+            "plate_slots": cfg["indexing"]["driving_plate_slots"]}
+
+
+# ---------------------------------------------------------------------------------------------
+# One whole job
+
+def choose_thread(m: Machine, walk: list[tuple[str, str]], starts: int, want: str) -> str:
+    """Walk the thread lists by digits, set the starts, use it; return the designation shown."""
+    m.wait("Thread family")
+    for heading, label in walk:
+        if heading == "Pitch":          # a size with one pitch skips this step
+            text = m.wait(re.compile(r"External or internal|\bPitch\b"))
+            if "External or internal" in text:
+                continue
+        pick(m, heading, label, f"thread: {heading.lower()}")
+    text = m.wait("This thread")
+    for n in range(2, starts + 1):
+        pick(m, "This thread", f"starts: {n - 1}", "thread: starts option")
+        text = m.wait(f"starts: {n}")
+    text = m.shot("thread: chosen", m.wait("pitch diameter"))
+    designation = find(r"(?m)^\s*(.+?)\s{2,}external ·", text, "designation")[1]
+    assert want in designation, text
+    if starts > 1:
+        assert f"{starts} starts" in text, text
+    pick(m, "This thread", "use it →", "thread: use it")
+    return designation
+
+
+def gear_lead_mm(gears: str, leadscrew_tpi: int) -> Fraction:
+    """Return the lead [mm] a train written on the screen makes, exactly.
+
+    ``60 > idler > 127`` (simple) or ``a/b x c/d`` (drivers a, c; driven b, d).
+    References: published-values.md section 8 (work pitch = leadscrew pitch × drivers/driven).
+    """
+    screw = Fraction(254, 10) / leadscrew_tpi
+    if m := re.fullmatch(r"(\d+) > idler > (\d+)", gears):
+        return screw * Fraction(int(m[1]), int(m[2]))
+    m = re.fullmatch(r"(\d+)/(\d+) x (\d+)/(\d+)", gears)
+    assert m, gears
+    a, b, c, d = map(int, m.groups())
+    return screw * Fraction(a * c, b * d)
+
+
+def set_up_lathe(m: Machine, facts: dict, lead_mm: Fraction, starts: int) -> dict:
+    """Answer the set-up questions by digits, record it; return what the screen said."""
+    text = m.wait("Question 1 of")
+    text = m.wait(re.compile(r"(?m)^ Gears\s+\S.*(exact|off the lead)"))
+    m.shot("set-up: change gears", text)
+    gears = find(r"(?m)^ Gears\s+(.+?), (?:exact|[+-][\d.]+% off the lead)", text, "gears")[1]
+    made = gear_lead_mm(gears, facts["leadscrew_tpi"])
+    # computed from leadscrew pitch × drivers/driven with Fraction, published-values.md §8
+    assert abs(float(made - lead_mm)) <= float(lead_mm) * 1e-3, (gears, made, lead_mm)
+    if ", exact" in text:
+        assert made == lead_mm, (gears, made)
+    m.keys("1")                                          # the best train
+    pick(m, "how is the work held?", "in a chuck", "set-up: work holding")
+    pick(m, "where does the tool run out", "into a relief groove (undercut)", "set-up: run-out")
+    out = {"gears": gears}
+    if starts > 1:
+        text = m.wait("index to the next of")
+        m.shot("set-up: indexing", text)
+        out["indexing_options"] = text
+        m.keys("1")
+    text = m.wait("All answered")
+    m.keys(ENTER)
+    text = m.shot("set-up: recorded", m.wait("Set-up recorded"))
+    out["half_nut"] = find(r"(?m)^ Half nut\s+(.+)$", text, "half-nut plan")[1].strip()
+    if starts > 1:
+        out["indexing"] = find(r"(?m)^ Indexing\s+(.+)$", text, "indexing line")[1].strip()
+    m.keys("+")
+    return out
+
+
+def walk_checklist(m: Machine) -> str:
+    """Check every item with Enter, one at a time; return the checklist as first shown."""
+    text = m.wait(re.compile(r": 0 of (\d+) checked"))
+    first = m.shot("checklist: first", text)
+    total = int(re.search(r": 0 of (\d+) checked", text)[1])
+    for k in range(1, total + 1):
+        m.keys(ENTER)
+        m.wait(f": {k} of {total} checked")
+    m.shot("checklist: all checked", m.wait("Every item is checked"))
+    m.keys("+")
+    return first
+
+
+def prepare_counter(m: Machine, od_typed: str) -> str:
+    """Type the blank's OD (digits and a point), Enter; then confirm the preparation."""
+    text = m.wait("Prepare ")
+    m.shot("counter: prepare", text)
+    m.keys(od_typed, ENTER)
+    text = m.shot("counter: OD taken", m.wait("Measured "))
+    m.keys(ENTER)
+    m.wait(PASS_OF)
+    return text
+
+
+def dial_setting(text: str) -> tuple[str, float]:
+    """Return (which dial, divisions from the zero) the counter says to set for this pass."""
+    dial = find(DIAL.pattern, text, "dial setting")
+    divs = find(DIVS.pattern, text, "divisions from the zero")
+    return dial[1], float(divs[1])
+
+
+def cut_one(m: Machine, sim: ThreadSim, facts: dict, angle: float, text: str,
+            log: list) -> str:
+    """Set the dial the screen shows, cut (the simulator cuts), press the key; return the next."""
+    which, divs = dial_setting(text)
+    step = facts["compound_div_mm"] if which == "COMPOUND" else facts["cross_div_mm"]
+    sim.cut_to(radial_from_dial(divs, step, angle if which == "COMPOUND" else 0.0))
+    if SPRING.search(text):
+        before = SPRING.search(text)[0]
+        m.keys("0")
+        log.append(("spring", divs))
+        return m.wait(lambda t: before not in t and (SPRING.search(t) or ALL_CUT.search(t)
+                                                     or PASS_OF.search(t)))
+    n = int(PASS_OF.search(text)[1])
+    m.keys(ENTER)
+    log.append(("pass", divs))
+    return m.wait(lambda t: f"Pass {n} recorded" in t)
+
+
+def read_wires(m: Machine, sim: ThreadSim, facts: dict, unit: str, title: str) -> dict:
+    """Go to the wire screen, type the simulator's reading, Enter; return what it shows."""
+    m.keys("+")
+    text = m.wait("Reading over wires")
+    wire = find(rf"wire {NUM} {unit}\b", text, "wire in use")
+    wire_mm = float(wire[1]) * (INCH if unit == "in" else 1.0)
+    owned = min(facts["wires_mm"], key=lambda w: abs(w - wire_mm))
+    assert abs(owned - wire_mm) < (0.00006 * INCH if unit == "in" else 0.0006), (wire_mm, owned)
+    typed = sim.typed(owned)                          # the wire as the config measured it
+    m.keys(typed, ENTER)
+    text = m.wait(f"Reading {typed}")
+    text = m.wait(re.compile(r"Oversize by|In the band|Undersize by|At the basic"))
+    m.shot(f"wires: {title}", text)
+    out = {"typed": typed, "wire_mm": owned, "text": text, "sim_pd": sim.pitch_diameter()}
+    out["pd"] = float(find(rf"→ PD {NUM} {unit}", text, "PD from the reading")[1])
+    out["state"] = ("oversize" if "Oversize by" in text else "in_band" if "In the band" in text
+                    else "undersize")
+    if band := re.search(r"in the band from (\d+) to (\d+) div", text):
+        out["band_divs"] = (int(band[1]), int(band[2]))
+    return out
+
+
+def back_to_counter(m: Machine) -> str:
+    m.keys("-")
+    return m.wait(re.compile(r"│ Pass counter │"))
+
+
+def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, od_typed: str,
+                  band: tuple[float, float], export_from_screen: bool):
+    """Cut one whole job by keypad; return (machine, record state, card text, log)."""
+    reason = tmux.missing_tools()
+    if reason:
+        pytest.skip(reason)
+    config = demo_config(tmp_path, units)
+    facts = lathe_facts(config)
+    data = tmp_path / "record"
+    m = Machine(tmp_path, config, data)
+    try:
+        designation = choose_thread(m, walk, starts, want)
+        text = m.wait("Question 1 of")
+        lead_mm = Fraction(find(r"lead (\d+\.\d+) mm", text, "lead")[1])
+        found = set_up_lathe(m, facts, lead_mm, starts)
+        checklist = walk_checklist(m)
+        prep = prepare_counter(m, od_typed)
+        text = m.shot("counter: pass 1", m.pane.capture())
+        # what the screen said to set: compound angle from the cross-slide, tip from the config
+        angle = float(find(r"compound (\d+(?:\.\d+)?)° from the cross-slide", prep,
+                           "compound angle")[1])
+        assert f"Compound set to {angle:g} deg on its scale" in checklist, checklist
+        od_mm = float(od_typed) * (INCH if units == "in" else 1.0)
+        pitch_mm = float(lead_mm) / starts
+        sim = ThreadSim(od_mm, pitch_mm, float(lead_mm), 60.0, facts["tip_kind"],
+                        facts["tip_mm"], facts["resolution_mm"], units)
+        log: list = []
+        total = int(PASS_OF.search(text)[2])
+        first_read = max(1, total - 3)               # a reading before the plan is finished
+        readings = []
+        while True:
+            text = m.pane.capture()
+            if PASS_OF.search(text) and not readings and \
+                    int(PASS_OF.search(text)[1]) > first_read:
+                r = read_wires(m, sim, facts, units, "part-way")
+                readings.append(r)
+                assert r["state"] == "oversize", r["text"]
+                check_remaining(r, sim, facts, angle, band)
+                back_to_counter(m)
+                text = m.shot("counter: replanned", m.wait("Replanned from wire reading"))
+                continue
+            if ALL_CUT.search(text):
+                r = read_wires(m, sim, facts, units, f"after {len(log)} cuts")
+                readings.append(r)
+                if r["state"] != "oversize":
+                    break
+                check_remaining(r, sim, facts, angle, band)
+                text = back_to_counter(m)
+                assert len(readings) < 5, "the reading never came inside the class"
+                if ALL_CUT.search(text):               # nothing replanned: a spring pass
+                    m.keys("0")
+                    sim.cut_to(sim.depth_mm)
+                    log.append(("spring", None))
+                    m.wait(re.compile(r"Spring pass recorded"))
+                continue
+            if len(log) > 40:
+                raise AssertionError("too many passes:\n" + tmux.framed(text))
+            m.shot(f"counter: cut {len(log) + 1}", text)
+            cut_one(m, sim, facts, angle, text, log)
+            m.wait(lambda t: PASS_OF.search(t) or SPRING.search(t) or ALL_CUT.search(t))
+        final = readings[-1]
+        assert final["state"] == "in_band", final["text"]
+        card = export_card(m, data, export_from_screen)
+        with Store.open_read_only(data) as store:
+            jobs = store.jobs(include_archived=True)
+            state = fold(store.events(jobs[0].id))
+        return m, state, card, {"log": log, "readings": readings, "sim": sim, "found": found,
+                                "designation": designation, "checklist": checklist,
+                                "angle": angle, "facts": facts}
+    finally:
+        m.write_shots(tmp_path / "captures")
+        m.close()
+
+
+def check_remaining(r: dict, sim: ThreadSim, facts: dict, angle: float, band) -> None:
+    """The remaining feed the screen shows agrees with what the simulator says the work needs."""
+    pd_min, pd_max = (b * (INCH if sim.unit == "in" else 1.0) for b in band)    # [mm]
+    per_div = radial_from_dial(1, facts["compound_div_mm"], angle)       # radial per division
+    # the simulator's own depths to the top and bottom of the band, in compound divisions
+    # computed from ThreadSim.depth_for (ISO 68-1 profile) and travel = depth / cos(angle)
+    top = (sim.depth_for(pd_max) - sim.depth_mm) / per_div
+    bottom = (sim.depth_for(pd_min) - sim.depth_mm) / per_div
+    assert "band_divs" in r, r["text"]
+    lo, hi = r["band_divs"]
+    assert math.ceil(top) - 1 <= lo <= math.ceil(top) + 1, (lo, top, r["text"])
+    assert math.floor(bottom) - 1 <= hi <= math.floor(bottom) + 1, (hi, bottom, r["text"])
+    # the PD the screen derived from the reading is the simulator's (exact vs H28 model,
+    # micrometer rounding): within 0.003 mm
+    shown = r["pd"] * (INCH if sim.unit == "in" else 1.0)
+    assert abs(shown - sim.pitch_diameter()) < 0.003, (shown, sim.pitch_diameter())
+
+
+def export_card(m: Machine, data: Path, from_screen: bool) -> str:
+    """Export the job card: from the jobs screen by keypad, or by ``shopterm export last``."""
+    if from_screen:
+        m.keys("*")
+        text = m.wait("Go to")
+        digit = number_of(text, "Jobs and export", "Go to")
+        assert digit, text
+        m.keys(digit)
+        text = m.wait("start a new job")
+        m.shot("jobs: list", text)
+        row = find(r"(?m)^\s*(\d) +1  ", text, "job 1 in the list")
+        m.keys(row[1])
+        pick(m, "Job 1: what to do", "export job card", "jobs: what to do")
+        text = m.shot("jobs: card written", m.wait("written as job card"))
+        assert "Written:" in text, text
+        # the app writes beside the record (a long path is cut on the pane, so not read back)
+        return (data / "exports" / "job-1.txt").read_text(encoding="utf-8")
+    cmd = tmux.shopterm_command()
+    env = tmux.app_env(m.workdir / "pane")
+    done = subprocess.run([str(cmd), "export", "last", "--format", "card", "--data-dir",
+                           str(data)], capture_output=True, text=True, timeout=60, env=env)
+    assert done.returncode == 0, done.stderr
+    return done.stdout
+
+
+def card_numbers(card: str, unit: str) -> dict:
+    """Return the numbers on a job card: final PD, the band, the passes listed [card's unit]."""
+    final = find(rf"Final pitch diameter\s+{NUM} {unit}", card, "final PD")
+    band = find(rf"re-checked against .+?: band {NUM} {unit} to {NUM} {unit}", card, "band")
+    passes = [(int(a), float(b)) for a, b in
+              re.findall(rf"(?m)^\s+(\d+)\s+\d\d:\d\d(?::\d\d)?\s+{NUM} {unit}", card)]
+    return {"pd": float(final[1]), "band": (float(band[1]), float(band[2])), "passes": passes,
+            "count": int(find(r"Passes \((\d+) in force\)", card, "pass count")[1])}
+
+
+def check_card(card: str, state, unit: str, band: tuple[float, float], sim: ThreadSim) -> None:
+    print(card)
+    nums = card_numbers(card, unit)
+    lo, hi = band
+    assert lo <= nums["pd"] <= hi, (nums["pd"], band)
+    assert nums["band"] == pytest.approx(band, abs=0.6 * (1e-4 if unit == "in" else 1e-3))
+    # every pass cut is listed, numbered 1..n, radial totals growing, as in the record
+    assert nums["count"] == len(state.passes)
+    assert [n for n, _ in nums["passes"]] == list(range(1, len(state.passes) + 1)), card
+    to_unit = INCH if unit == "in" else 1.0
+    for (_, shown), p in zip(nums["passes"], state.passes):
+        assert shown == pytest.approx(p.radial_cum_mm / to_unit, abs=0.6 * (
+            1e-4 if unit == "in" else 1e-3))
+    radial = [r for _, r in nums["passes"]]
+    assert radial == sorted(radial)
+    # the final reading in the record is the simulator's reading, and its PD is the truth
+    last = state.last_reading
+    assert last.state == "in_band"
+    assert abs(last.pd_mm - sim.pitch_diameter()) < 0.003
+    assert lo * to_unit - 1e-9 <= sim.pitch_diameter() <= hi * to_unit + 1e-9
+    # the plain three-wire relation inverts the typed reading: the record's simple PD is
+    # M - W(1 + cosec 30°) + (P/2) cot 30° (published-values.md §5, 60° constants 3 / 0.866025)
+    p = sim.pitch_mm
+    assert last.payload["pd_simple_mm"] == pytest.approx(
+        last.measured_mm - 3.0 * last.wire_mm + 0.866025 * p, abs=2e-6)
+
+
+# ---------------------------------------------------------------------------------------------
+# The jobs
+
+M10_WALK = [("Thread family", "ISO metric"), ("Size", "M10"), ("Pitch", "1.5 mm coarse"),
+            ("External or internal", "external (screw)"), ("Class of fit", "6g")]
+UNC_WALK = [("Thread family", "Unified inch"), ("Series", "UNC"), ("Size", "3/8"),
+            ("Pitch", "16 tpi UNC"), ("External or internal", "external (screw)"),
+            ("Class of fit", "2A")]
+M10_6G = (8.862, 8.994)        # ISO 965-2, M10x1.5-6g d2 min / max (published-values.md §1)
+UNC_2A = (0.3287, 0.3331)      # ASME B1.1 table, 3/8-16 UNC-2A PD min / max (published-values.md §2)
+
+
+def test_m10_metric_job_by_keypad(tmp_path):
+    m, state, card, run = run_whole_job(
+        tmp_path, units="mm", walk=M10_WALK, starts=1, want="M10x1.5-6g",
+        od_typed="9.95", band=M10_6G, export_from_screen=True)
+    # 60 > idler > 127 on the 8 tpi leadscrew: 25.4/8 × 60/127 = 1.5 mm exactly
+    # computed with Fraction, published-values.md §8 (8 tpi × 120/127 = 3.000 mm)
+    assert gear_lead_mm("60 > idler > 127", 8) == Fraction(3, 2)
+    assert run["found"]["gears"]
+    # metric lead on an inch leadscrew: keep the half nut closed (published-values.md §7)
+    assert "keep the half nut closed" in run["found"]["half_nut"].lower()
+    # modified flank at 29.5° from the cross-slide (published-values.md §6)
+    assert run["angle"] == 29.5
+    check_card(card, state, "mm", M10_6G, run["sim"])
+    assert "6g" in card and "M10x1.5-6g" in card
+    assert len(run["readings"]) >= 2                     # part-way, then inside 6g
+
+
+def test_unc_inch_job_by_keypad(tmp_path):
+    m, state, card, run = run_whole_job(
+        tmp_path, units="in", walk=UNC_WALK, starts=1, want="3/8-16 UNC-2A",
+        od_typed="0.3730", band=UNC_2A, export_from_screen=False)
+    # 16 tpi from an 8 tpi leadscrew: ratio 1/2 exactly, lead 25.4/16 mm
+    # computed with Fraction from the train on the screen (published-values.md §8)
+    assert gear_lead_mm(run["found"]["gears"], 8) == Fraction(254, 160)
+    check_card(card, state, "in", UNC_2A, run["sim"])
+    assert "3/8-16 UNC-2A" in card
+
+
+def test_two_start_job_shows_the_indexing_step(tmp_path):
+    m, state, card, run = run_whole_job(
+        tmp_path, units="mm", walk=M10_WALK, starts=2, want="M10", od_typed="9.95",
+        band=M10_6G, export_from_screen=False)
+    facts = run["facts"]
+    found = run["found"]
+    assert found["indexing"], found
+    # whatever method the screen offers first, its step is the count divided by the starts:
+    # the demo lathe's 60-tooth spindle gear → 30 teeth, its 4-slot driving plate → 2 slots,
+    # a 4-jaw chuck → 2 jaws (computed: count / starts; the counts from the sample config, a
+    # chuck's jaws # common practice, no source)
+    text = found["indexing"]
+    if m_ := re.search(r"(\d+)-jaw chuck, (\d+) jaws? per start", text):
+        assert int(m_[2]) * 2 == int(m_[1]), text
+    elif m_ := re.search(r"(\d+) teeth per start", text):
+        assert int(m_[1]) == facts["spindle_gear"] // 2, text
+    elif m_ := re.search(r"(\d+) slots? per start", text):
+        assert int(m_[1]) == facts["plate_slots"] // 2, text
+    else:
+        assert "dial lines" in text, text
+    # every method the set-up lists is one the config gives the means for
+    assert re.search(rf"\b{facts['spindle_gear'] // 2} teeth|\b{facts['plate_slots'] // 2} "
+                     r"slots|jaws", found["indexing_options"]), found["indexing_options"]
+    assert "index to the next of 2 starts" in found["indexing_options"]
+    assert "starts" in run["checklist"].lower() or "index" in run["checklist"].lower(), \
+        run["checklist"]
+    # lead 3 mm = 2 × 1.5 (two starts)
+    assert state.thread.values["starts"] == 2
+    check_card(card, state, "mm", M10_6G, run["sim"])
