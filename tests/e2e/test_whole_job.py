@@ -248,7 +248,12 @@ def prepare_counter(m: Machine, od_typed: str) -> str:
     """Type the blank's OD (digits and a point), Enter; then confirm the preparation."""
     text = m.wait("Prepare ")
     m.shot("counter: prepare", text)
-    m.keys(od_typed, ENTER)
+    # a slip corrected with Backspace: one digit too many, taken back, nothing else lost
+    m.keys(od_typed, "7")
+    m.wait(f"{od_typed}7")
+    m.keys("BSpace")
+    m.wait(lambda t: f"{od_typed}7" not in t and od_typed in t)
+    m.keys(ENTER)
     text = m.shot("counter: OD taken", m.wait("Measured "))
     m.keys(ENTER)
     m.wait(PASS_OF)
@@ -527,6 +532,59 @@ def test_two_start_job_shows_the_indexing_step(tmp_path):
     assert "index to the next of 2 starts" in found["indexing_options"]
     assert "starts" in run["checklist"].lower() or "index" in run["checklist"].lower(), \
         run["checklist"]
-    # lead 3 mm = 2 × 1.5 (two starts)
+    # lead 3 mm = 2 × 1.5 (two starts); the counter says to cut every start at each setting
     assert state.thread.values["starts"] == 2
+    assert any("cut all 2 starts at this setting" in t for _, t in m.shots), "no start step"
     check_card(card, state, "mm", M10_6G, run["sim"])
+
+
+# ---------------------------------------------------------------------------------------------
+# The simulator itself (no tmux): it must agree with the published numbers it stands on
+
+def test_simulator_against_published_relations():
+    pitch = 1.5
+    sim = ThreadSim(10.0, pitch, 0.0, 60.0, "radius", 0.0, 0.001, "mm")
+    # a sharp V cut to the basic depth 5/8 H below a crest at the basic major leaves the basic
+    # PD: ISO 68-1, H = 0.866025P, d2 = d - 0.649519P (published-values.md §1); here the
+    # sharp V from the OD reaches PD = OD - 2·depth + H, so depth = (d - d2 + H) / 2
+    h = 0.8660254 * pitch
+    sim.cut_to((10.0 - (10.0 - 0.649519 * pitch) + h) / 2)
+    assert sim.pitch_diameter() == pytest.approx(10.0 - 0.649519 * pitch, abs=1e-6)
+    # no lead: the plain relation, 60° constants M = E + 3W - 0.866025P (published-values.md §5)
+    w = 0.866
+    assert sim.over_wires(w) == pytest.approx(sim.pitch_diameter() + 3 * w - 0.866025 * pitch,
+                                              abs=1e-6)
+    # H28 lead term: 1/4-20, E 0.2175, W 0.0289 in, lead 0.05 in: 0.000116 in
+    # (published-values.md §5, [C])
+    inch = ThreadSim(0.25, 0.05, 0.05, 60.0, "radius", 0.0, 0.0001, "in")
+    plain = 0.2175 + 3 * 0.0289 - 0.866025 * 0.05
+    assert inch.over_wires(0.0289, pd_mm=0.2175) - plain == pytest.approx(0.000116, abs=2e-6)
+    # a nose radius r sets the V's apex r(1/sin 30° - 1) = r beyond the tip; a flat f by
+    # (f/2)/tan 30° (computed from the tool's geometry, 60° form)
+    r = ThreadSim(10.0, pitch, pitch, 60.0, "radius", 0.1, 0.001, "mm")
+    f = ThreadSim(10.0, pitch, pitch, 60.0, "flat", 0.1, 0.001, "mm")
+    assert r.apex_beyond_tip() == pytest.approx(0.1, abs=1e-12)
+    assert f.apex_beyond_tip() == pytest.approx(0.05 * math.sqrt(3), abs=1e-12)
+    # the inverse: the depth for a PD cuts to that PD
+    r.cut_to(r.depth_for(8.928))
+    assert r.pitch_diameter() == pytest.approx(8.928, abs=1e-12)
+    # the micrometer rounds to its step, in its unit: 0.0001 in = 0.00254 mm
+    mic = ThreadSim(9.5, 25.4 / 16, 25.4 / 16, 60.0, "radius", 0.1, 0.00254, "in")
+    value = mic.reading(0.9)
+    assert value == round(value, 4)
+    assert abs(value * INCH - mic.over_wires(0.9)) <= 0.5 * 0.00254 + 1e-9
+    assert mic.typed(0.9) == f"{value:.4f}"
+    assert r.typed(0.866) == f"{r.reading(0.866):.3f}"
+    # the compound at 29.5°: travel = radial / cos 29.5° = radial × 1.14896 (published §6)
+    assert radial_from_dial(10, 0.0254, 29.5) * 1.14896 == pytest.approx(0.254, abs=1e-5)
+
+
+def test_gear_lead_helper_against_the_published_train():
+    # 8 tpi leadscrew × 120/127 = 3.000 mm (published-values.md §8), written as a simple train
+    assert gear_lead_mm("120 > idler > 127", 8) == Fraction(3)
+    # compound: 4 tpi leadscrew, 36/48 × 66/18 → 11 tpi (Rose, published-values.md §8);
+    # our reading "a/b x c/d" has drivers a, c: 36/18 x 66/48 is that train on an 8 tpi screw
+    # giving 25.4/8 × (36·66)/(18·48) = 25.4/8 × 2.75 mm
+    assert gear_lead_mm("36/18 x 66/48", 8) == Fraction(254, 80) * Fraction(36 * 66, 18 * 48)
+    with pytest.raises(AssertionError):
+        gear_lead_mm("box A1 alone", 8)
