@@ -423,23 +423,25 @@ def _reading_text(turns: int, mark: float, step: float) -> str:
 
 
 def pass_view(plan: Plan, done: int, *, feed_zero: float = 0.0, cross_zero: float = 0.0,
-              side_zero: float = 0.0) -> PassView:
+              side_zero: float = 0.0, passes_before: int = 0) -> PassView:
     """Return what the pass counter shows after ``done`` passes have been confirmed.
 
     plan: the plan; done: passes confirmed (infeed, then spring); feed_zero, cross_zero,
-    side_zero [divisions]: the dial marks that stand for count 0 (see ``pickup``).
+    side_zero [divisions]: the dial marks that stand for count 0 (see ``pickup``);
+    passes_before: passes cut under earlier plans (a replanned job counts on from them, and
+    its progress is the whole depth, not just this plan's part of it).
     References: none (presentation of the plan).
     """
     total_n, spring_n = len(plan.passes), len(plan.spring_passes)
     if not isinstance(done, int) or done < 0:
         raise InvalidEntry("The passes done must be a whole number, 0 or more.")
     done = min(done, total_n + spring_n)
+    before_first = done == 0 and passes_before == 0
     method = plan.method
     depth_total = plan.set_total_radial
     depth_done = plan.passes[done - 1].radial_cum if 0 < done <= total_n else (
         depth_total if done > total_n else plan.start_radial)
-    span = depth_total - plan.start_radial
-    progress = 1.0 if span <= 0 else (depth_done - plan.start_radial) / span
+    progress = 1.0 if depth_total <= 0 else min(max(depth_done / depth_total, 0.0), 1.0)
     if done < total_n:
         p, kind, n = plan.passes[done], plan.passes[done].kind, done + 1
     elif done < total_n + spring_n:
@@ -468,12 +470,13 @@ def pass_view(plan: Plan, done: int, *, feed_zero: float = 0.0, cross_zero: floa
         next_step = (f"Spring pass {n}: leave the {slide} at {text} and cut again with no "
                      "feed.")
     else:
-        what = "the finishing pass" if kind == "finish" else f"pass {n} of {total_n}"
-        first = "Read the cautions; then " if done == 0 else ""
+        what = ("the finishing pass" if kind == "finish"
+                else f"pass {passes_before + n} of {passes_before + total_n}")
+        first = "Read the cautions; then " if before_first else ""
         next_step = (f"{first}set the {slide} to {text}"
                      + (f" and the {side_text}" if side_text else "") + f", cut {what}.")
-    cautions = plan.cautions if done == 0 else tuple(c for c in plan.cautions
-                                                     if "past its limit" in c)
+    cautions = plan.cautions if before_first else tuple(c for c in plan.cautions
+                                                        if "past its limit" in c)
     return PassView(n, total_n, kind, slide, count, turns, mark, text, side_text, rt, rm,
                     return_text, depth_done, max(depth_total - depth_done, 0.0), depth_total,
                     progress, next_step, cautions)

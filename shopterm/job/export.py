@@ -173,7 +173,8 @@ def _time(at: str, with_date: bool = False) -> str:
 def _value(key: str, v: Any, unit: str) -> str:
     if key.endswith("_mm") and isinstance(v, (int, float)) and not isinstance(v, bool):
         return format_length(float(v), unit)
-    if key.endswith("_deg") and isinstance(v, (int, float)) and not isinstance(v, bool):
+    if (key.endswith("_deg") or "angle" in key) and isinstance(v, (int, float)) \
+            and not isinstance(v, bool):
         return f"{v:g}°"
     if isinstance(v, bool):
         return "yes" if v else "no"
@@ -182,7 +183,7 @@ def _value(key: str, v: Any, unit: str) -> str:
     if isinstance(v, list):
         return " / ".join(_value("", x, unit) for x in v)
     if isinstance(v, dict):
-        return ", ".join(f"{k.replace('_', ' ')} {_value(k, x, unit)}" for k, x in v.items())
+        return ", ".join(f"{_label(k)} {_value(k, x, unit)}" for k, x in v.items())
     return "" if v is None else str(v)
 
 

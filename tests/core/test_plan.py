@@ -137,6 +137,19 @@ def test_replan_from_measured_pd():
     assert new.passes[-1].radial_cum - inner.passes[3].radial_cum == pytest.approx(0.033, abs=1e-4)
 
 
+def test_pass_view_after_a_replan_counts_on_and_shows_the_whole_depth():
+    m = infeed_method("modified", 60)
+    plan = make_plan(0.9, m, passes=8, feed_dial=FINE)
+    done = plan.passes[6].radial_cum                  # 7 passes cut under the first plan
+    new = replan(plan, 8.990, 8.928, done)            # (8.990 − 8.928)/2 = 0.031 mm left
+    v = pass_view(new, 0, passes_before=7)
+    assert f"pass 8 of {7 + len(new.passes)}" in v.next_step
+    assert "Read the cautions" not in v.next_step      # they were read before pass 1
+    # progress is the depth done over the whole depth, not over the replanned part alone
+    assert v.progress == pytest.approx(done / new.set_total_radial)
+    assert v.depth_done == pytest.approx(done)
+
+
 def test_replan_at_or_past_aim():
     plan = make_plan(0.9, infeed_method("radial", 60), passes=8, feed_dial=FINE)
     done = plan.passes[-1].radial_cum

@@ -74,7 +74,8 @@ class Cut:
         done = self.done_in_plan if self.done_in_plan < n else n + self.springs_done
         feed_name = "compound" if p.method.feeds_with == "compound" else "cross-slide"
         z = {k: v.offset for k, v in self.zeros.items()}
-        return pass_view(p, done, feed_zero=z.get(feed_name, 0.0),
+        return pass_view(p, done, passes_before=self.passes_before,
+                         feed_zero=z.get(feed_name, 0.0),
                          cross_zero=z.get("cross-slide", 0.0),
                          side_zero=z.get("compound", 0.0) if p.method.method == "alternating"
                          else 0.0)

@@ -77,7 +77,7 @@ class JobsScreen(ShopScreen):
                          text-style: bold; }
     JobsScreen #message { height: auto; max-height: 3; }
     JobsScreen #job-detail { height: auto; max-height: 3; padding: 0 1; }
-    JobsScreen #written { height: auto; max-height: 2; padding: 0 1; }
+    JobsScreen #written { height: auto; max-height: 3; padding: 0 1; }
     """
     HELP = (("1-9", "pick a job, then what to do with it; 0 = next page of jobs"),
             ("-", "from what to do: back to the list of jobs"),

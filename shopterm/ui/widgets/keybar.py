@@ -22,7 +22,7 @@ class KeyBar(Static):
         for i, (k, what) in enumerate(hints):
             if i:
                 out.append("  ")
-            out.append(f" {k} ", style="reverse bold")
+            out.append(k, style="reverse bold")
             out.append(f" {what}")
         self.update(out)
 
