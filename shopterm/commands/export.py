@@ -6,12 +6,11 @@ running shopterm on the same data is not disturbed.
 
 from __future__ import annotations
 
-import os
 import sys
-import tempfile
 from pathlib import Path
 
 from shopterm.errors import InvalidEntry
+from shopterm.job.export import write_whole
 
 
 def register(subparsers) -> None:
@@ -71,22 +70,9 @@ def run(args) -> int:
 
 
 def _write_file(path: Path, text: str) -> None:
-    """Write ``text`` to ``path`` whole or not at all (temporary file, then rename)."""
+    """Write ``text`` to ``path`` whole or not at all; a failure says what to do."""
     try:
-        fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent or ".")
+        write_whole(path, text)
     except OSError as exc:
-        raise InvalidEntry(f"Cannot write in {path.parent or '.'} ({exc.strerror}); "
-                           "give another file with -o.") from None
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as f:
-            f.write(text)
-            f.flush()
-            os.fsync(f.fileno())
-        os.replace(tmp, path)
-    except OSError as exc:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise InvalidEntry(f"Cannot write {path} ({exc.strerror}); give another file with -o."
-                           ) from None
+        raise InvalidEntry(f"Cannot write {path} ({exc.strerror or exc}); give another file "
+                           "with -o.") from None

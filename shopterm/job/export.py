@@ -322,3 +322,31 @@ def export(events: Sequence[Event], fmt: str, status: str | None = None) -> str:
     if fmt == "card":
         return job_card(events, status)
     raise InvalidEntry(f"{fmt!r} is not an export format; use one of: {', '.join(FORMATS)}.")
+
+
+def write_whole(path, text: str, *, make_folder: bool = False) -> None:
+    """Write ``text`` to ``path`` whole or not at all (temporary file, fsync, then rename).
+
+    make_folder: create the folder first (else a missing folder is an error). Raises
+    ``OSError``; nothing half-written is left behind.
+    """
+    import os
+    import tempfile
+    from pathlib import Path
+
+    path = Path(path)
+    if make_folder:
+        path.parent.mkdir(parents=True, exist_ok=True)
+    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8", newline="") as f:
+            f.write(text)
+            f.flush()
+            os.fsync(f.fileno())
+        os.replace(tmp, path)
+    except BaseException:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+        raise

@@ -9,8 +9,6 @@ offers to try saving again.
 
 from __future__ import annotations
 
-import os
-import tempfile
 from pathlib import Path
 
 from rich.text import Text
@@ -19,6 +17,7 @@ from textual.app import ComposeResult
 from textual.widgets import Static
 
 from shopterm.errors import ShoptermError
+from shopterm.job.export import write_whole
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.widgets.picklist import PickList
 
@@ -48,24 +47,6 @@ def job_row(info, state) -> str:
     last = state.events[-1].at if state.events else info.created
     return (f"{info.id:>4}  {designation[:19]:<19}  {state.status:<9}  "
             f"{len(state.passes):>6}  {short_time(last)}")
-
-
-def write_export(path: Path, text: str) -> None:
-    """Write ``text`` to ``path`` whole or not at all (a temporary file, fsync, then rename)."""
-    path.parent.mkdir(parents=True, exist_ok=True)
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="") as f:
-            f.write(text)
-            f.flush()
-            os.fsync(f.fileno())
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
 
 
 class JobsScreen(ShopScreen):
@@ -298,7 +279,7 @@ class JobsScreen(ShopScreen):
         folder = Path(self.store.directory) / "exports"
         path = folder / f"job-{session.job_id}.{suffix}"
         try:
-            write_export(path, text)
+            write_whole(path, text, make_folder=True)
         except OSError as exc:
             self.say(f"Could not write the {words} ({exc.strerror or exc}) in {folder}. "
                      "Free some space or fix the card, then try again.", error=True)
