@@ -19,10 +19,16 @@ symmetric thread of half-angle ``a``, pitch ``P``, wire diameter ``W``:
     the wire's axis measured in the anvil plane). The maximum over the flank's radius ρ has a
     closed form, leaving a one-dimensional maximum over the helix angle φ; the anvil pushes the
     wire until it settles at the tilt that lets it sink deepest, so X = min over θ of that
-    maximum. Both searches are golden-section searches (pure Python, a few milliseconds). The
-    groove is symmetric under a half turn about the micrometer's line, so the wire touches both
-    flanks; M = 2X + W. The flank is taken only on its straight part (between the root and
-    crest roundings or flats), so a far, imaginary extension of it never holds the wire up. With L = 0 this reduces to ``simple`` exactly, and for small lead
+    maximum: a saddle point of the depth as a function of (φ, θ). It is found by Newton's
+    method on the depth's gradient, with its first and second derivatives in closed form,
+    started from the seat in the plain V (tilt = helix angle at the wire's axis): two to four
+    steps, a few tens of µs in pure Python. Where Newton's method does not settle (lead
+    angles of about 30° and more on very small diameters) nested golden-section searches do
+    the same job slowly. Results are cached per (E, W, form, P, L). The groove is symmetric
+    under a half turn about the micrometer's line, so the wire touches both flanks;
+    M = 2X + W. The flank is taken only on its straight part (between the root and crest
+    roundings or flats), so a far, imaginary extension of it never holds the wire up. With
+    L = 0 this reduces to ``simple`` exactly, and for small lead
     angles it agrees with ``h28`` (tests check both).
 
 All lengths in mm. Wire sizes: best W = P / (2 cos a) touches the flanks at the pitch line;
@@ -32,6 +38,8 @@ axial section, lead angle neglected — as the published ranges are worked out).
 
 References: NBS Handbook H28 (1957) Part I, Section IX, "Measurement of pitch diameter by the
 three-wire method"; ASME B1.2 (gages and gaging for Unified threads), three-wire appendix;
+Newton's method for a stationary point and golden-section search (Kiefer 1953), as in any
+numerical analysis text (e.g. Press et al., *Numerical Recipes*, ch. 9–10);
 Jones, *Turning and Boring* (1914), m = d − 1.5155p + 3w; BS 84 / BS 93 basic forms for the
 rounded crests. Constants as collected in ../shared/reference/published-values.md §5.
 """
@@ -40,6 +48,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Iterable, Literal, Sequence
 
 from shopterm.errors import InvalidEntry
@@ -319,6 +328,154 @@ class WireContact:
     contact_angle_deg: float  # φ of the contact point around the axis [deg]
 
 
+# The exact model, worked in the wire's frame: the wire's axis passes through (X, 0, 0) along
+# (0, cos θ, sin θ); a point of the + flank at helix angle φ and radius ρ lies at distance v =
+# ρ·b − e_z from it in the anvil plane, b = sin φ·sin θ − tan a·cos θ, e_z = cos θ·(kφ + c0),
+# k = L/2π, c0 = P/4 − (E/2)·tan a. The depth the flank allows there is ρ cos φ + √(r² − v²);
+# its largest value over ρ is g(φ, θ) = (cos φ·e_z − r·q)/b, q = √(b² + cos²φ), at ρ = (e_z −
+# r cos φ/q)/b, or the value at the nearer end of the straight flank when that ρ is off it.
+# X = min over θ of max over φ of g: a saddle point of g, found by Newton's method on its
+# gradient with the derivatives below worked out by hand (two or three steps from the plain-V
+# start); see ``wire_contact``.
+
+_Groove = tuple  # (r, tan a, k, c0, rho_lo, rho_hi, reach, theta_lo, theta_hi)
+
+
+def _groove(e: float, w: float, form: ThreadForm, p: float, l: float) -> _Groove:
+    """Return the constants of the groove a wire of diameter ``w`` [mm] lies in.
+
+    e: pitch diameter [mm]; p: pitch [mm]; l: lead [mm]. ``reach`` bounds the helix angle of
+    the contact [rad] (it lies within a wire's reach of the wire's plane); ``theta_lo`` and
+    ``theta_hi`` bound the tilt [rad] (``theta_hi`` above the helix angle near the root).
+    References: module docstring (NBS H28 three-wire geometry).
+    """
+    r = w / 2
+    tan_a = math.tan(form.half_angle_rad)
+    k = l / (2 * math.pi)
+    _crest, top, bottom = _flank_limits(form)
+    root_apex = e / 2 - form.height * p / 2      # radius of the sharp root
+    reach = min(1.2, 3 * (r + p) / max(e, 1e-9))
+    lam = math.atan(k / max(e / 2 - p / 2, e / 4))   # helix angle near the root
+    return (r, tan_a, k, p / 4 - e / 2 * tan_a, root_apex + bottom * p, root_apex + top * p,
+            reach, -1e-3 if k == 0 else 0.0, min(1.3, 1.6 * lam + 1e-3))
+
+
+def _depth(phi: float, theta: float, gr: _Groove, order: int):
+    """Return the deepest the flank lets the wire's axis come at (φ, θ), or None where it cannot
+    hold the wire; with its derivatives up to ``order``.
+
+    phi, theta [rad]. Returns (g [mm], ρ [mm]) for order 0, then g_φ, g_θ for order 1, then
+    g_φφ, g_φθ, g_θθ for order 2 (derivatives of g = N/b and of the end-of-flank depth
+    R cos φ + √(r² − u²), u = R·b − e_z, by the quotient and chain rules).
+    References: module docstring.
+    """
+    r, tan_a, k, c0, rho_lo, rho_hi = gr[:6]
+    c, s = math.cos(phi), math.sin(phi)
+    ct, st = math.cos(theta), math.sin(theta)
+    b = s * st - tan_a * ct
+    if b > -1e-12:
+        return None
+    m = k * phi + c0
+    ez = ct * m
+    q = math.sqrt(b * b + c * c)
+    rho = (ez - r * c / q) / b
+    if rho_lo <= rho <= rho_hi:
+        g = (c * ez - r * q) / b
+        if order == 0:
+            return g, rho
+        bp, bt = c * st, s * ct + tan_a * st
+        ezp, ezt = ct * k, -st * m
+        qp = (b * bp - c * s) / q
+        qt = b * bt / q
+        gp = (-s * ez + c * ezp - r * qp - g * bp) / b
+        gt = (c * ezt - r * qt - g * bt) / b
+        if order == 1:
+            return g, rho, gp, gt
+        bpp, bpt = -s * st, c * ct                 # b_θθ = −b, e_z,θθ = −e_z, e_z,φφ = 0
+        qpp = (bp * bp + b * bpp + s * s - c * c - qp * qp) / q
+        qpt = (bp * bt + b * bpt - qp * qt) / q
+        qtt = (bt * bt - b * b - qt * qt) / q
+        gpp = (-c * ez - 2 * s * ezp - r * qpp - 2 * gp * bp - g * bpp) / b
+        gpt = (-s * ezt - c * st * k - r * qpt - gp * bt - gt * bp - g * bpt) / b
+        gtt = (-c * ez - r * qtt - 2 * gt * bt + g * b) / b
+        return g, rho, gp, gt, gpp, gpt, gtt
+    # the flank exists only on its straight part: the depth is concave in ρ, so the largest
+    # depth there is at the nearer end
+    R = rho_lo if rho < rho_lo else rho_hi
+    u = R * b - ez
+    if abs(u) >= r:
+        return None
+    S = math.sqrt(r * r - u * u)
+    g = R * c + S
+    if order == 0:
+        return g, R
+    bp, bt = c * st, s * ct + tan_a * st
+    up, ut = R * bp - ct * k, R * bt + st * m
+    gp = -R * s - u * up / S
+    gt = -u * ut / S
+    if order == 1:
+        return g, R, gp, gt
+    upp, upt, utt = -R * s * st, R * c * ct + st * k, -R * b + ez
+    w3 = u * u / (S * S * S)
+    gpp = -R * c - (up * up + u * upp) / S - w3 * up * up
+    gpt = -(up * ut + u * upt) / S - w3 * up * ut
+    gtt = -(ut * ut + u * utt) / S - w3 * ut * ut
+    return g, R, gp, gt, gpp, gpt, gtt
+
+
+def _depth_per_pd(phi: float, theta: float, gr: _Groove) -> float:
+    """Return ∂g/∂E at (φ, θ): how fast the wire's seat rises with the pitch diameter (½ at no lead).
+
+    phi, theta [rad]. E moves c0 by −(tan a)/2 and the ends of the straight flank by ½.
+    References: module docstring.
+    """
+    r, tan_a, k, c0, rho_lo, rho_hi = gr[:6]
+    c, s = math.cos(phi), math.sin(phi)
+    ct, st = math.cos(theta), math.sin(theta)
+    b = s * st - tan_a * ct
+    ez = ct * (k * phi + c0)
+    q = math.sqrt(b * b + c * c)
+    rho = (ez - r * c / q) / b
+    if rho_lo <= rho <= rho_hi:
+        return -c * ct * tan_a / (2 * b)
+    R = rho_lo if rho < rho_lo else rho_hi
+    u = R * b - ez
+    return c / 2 - u * (b + ct * tan_a) / (2 * math.sqrt(r * r - u * u))
+
+
+def _settle_newton(gr: _Groove, phi: float, theta: float):
+    """Return (X [mm], θ, φ, ρ [mm]) at the saddle of g by Newton's method from (φ, θ), or None.
+
+    None when a step leaves the groove, the curvature is not that of a saddle (max in φ, min
+    in θ), the steps do not settle, or the result lies outside the bounds of ``_groove``.
+    References: Newton's method for a stationary point (any numerical analysis text).
+    """
+    reach, theta_lo, theta_hi = gr[6:]
+    for _ in range(30):
+        d = _depth(phi, theta, gr, 2)
+        if d is None:
+            return None
+        _g, _rho, gp, gt, gpp, gpt, gtt = d
+        det = gpp * gtt - gpt * gpt
+        if gpp >= 0 or det >= 0:
+            return None
+        dphi = (gpt * gt - gtt * gp) / det
+        dtheta = (gpt * gp - gpp * gt) / det
+        if abs(dphi) > reach or abs(dtheta) > 0.25:
+            return None
+        phi += dphi
+        theta += dtheta
+        if abs(dphi) < 1e-12 and abs(dtheta) < 1e-12:
+            break
+    else:
+        if abs(dphi) > 1e-9 or abs(dtheta) > 1e-9:
+            return None
+    if not (-reach <= phi <= reach and theta_lo <= theta <= theta_hi):
+        return None
+    d = _depth(phi, theta, gr, 0)
+    return None if d is None else (d[0], theta, phi, d[1])
+
+
 def _golden_max(f, lo: float, hi: float, tol: float):
     """Return (x, f(x)) maximising a unimodal ``f`` on [lo, hi]."""
     c = hi - _GOLDEN * (hi - lo)
@@ -336,75 +493,93 @@ def _golden_max(f, lo: float, hi: float, tol: float):
     return (c, fc) if fc > fd else (d, fd)
 
 
+def _settle_search(gr: _Groove):
+    """Return (X [mm], θ, φ, ρ [mm]) by nested golden-section searches (slow, sure).
+
+    For each tilt θ the largest g over φ: a 17-point scan over the reach, refined by a golden
+    search; then the smallest of those over θ by a golden search. Used when Newton's method
+    does not settle (lead angles of about 30° and more on a very small diameter).
+    References: golden-section search (Kiefer 1953).
+    """
+    reach, theta_lo, theta_hi = gr[6:]
+
+    def g(phi: float, theta: float) -> float:
+        d = _depth(phi, theta, gr, 0)
+        return -math.inf if d is None else d[0]
+
+    def sink_limit(theta: float):
+        n = 16
+        step = 2 * reach / n
+        best_i, best_v = 0, -math.inf
+        for i in range(n + 1):
+            v = g(-reach + i * step, theta)
+            if v > best_v:
+                best_i, best_v = i, v
+        lo = -reach + max(best_i - 1, 0) * step
+        hi = -reach + min(best_i + 1, n) * step
+        phi, x = _golden_max(lambda f: g(f, theta), lo, hi, 1e-7)
+        return x, phi
+
+    theta, _ = _golden_max(lambda t: -sink_limit(t)[0], theta_lo, theta_hi, 1e-6)
+    x, phi = sink_limit(theta)
+    d = _depth(phi, theta, gr, 0)
+    rho = d[1] if d is not None else math.nan
+    return x, theta, phi, rho
+
+
+def _plain_v_start(e: float, w: float, form: ThreadForm, p: float, k: float) -> tuple[float, float]:
+    """Return (φ, θ) to start Newton from: the contact in the wire's plane, the wire tilted to
+    the helix angle at its axis as it sits in the plain V (lead neglected).
+
+    e, w, p [mm]; k = L/2π [mm].
+    References: NBS H28 simple formula for the wire's seat.
+    """
+    a = form.half_angle_rad
+    x_plain = (e + w / math.sin(a) - p / (2 * math.tan(a))) / 2
+    return 0.0, math.atan2(k, x_plain)
+
+
+def _settle(e: float, w: float, form: ThreadForm, p: float, l: float,
+            start: tuple[float, float] | None = None):
+    """Return (X [mm], θ, φ, ρ [mm], groove) where the wire settles; ``start`` is (φ, θ) or None.
+
+    e, w, p, l [mm], already checked.
+    References: module docstring.
+    """
+    gr = _groove(e, w, form, p, l)
+    found = None
+    if start is not None:
+        found = _settle_newton(gr, *start)
+    if found is None:
+        found = _settle_newton(gr, *_plain_v_start(e, w, form, p, gr[2]))
+    if found is None:
+        found = _settle_search(gr)
+    return found + (gr,)
+
+
+@lru_cache(maxsize=512)
+def _settle_cached(e: float, w: float, form: ThreadForm, p: float, l: float):
+    return _settle(e, w, form, p, l)
+
+
 def wire_contact(pd: float, wire: float, form: ThreadForm, pitch: float,
                  lead: float | None = None) -> WireContact:
     """Return where a wire settles in the helical groove and the exact measurement over wires.
 
     pd: pitch diameter [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
-    Method in the module docstring: min over the wire's tilt θ of the max over the helix
-    angle φ of the closed-form depth the flank allows.
+    Method in the module docstring: X = min over the wire's tilt θ of the max over the helix
+    angle φ of the closed-form depth g(φ, θ) the flank allows, i.e. the saddle point of g,
+    found by Newton's method on ∇g = 0 with g's first and second derivatives in closed form,
+    started from the plain-V seat (tilt = helix angle at the wire's axis); nested golden-section
+    searches when Newton's method does not settle. Results are cached per (pd, wire, form,
+    pitch, lead).
     References: geometry of NBS H28 three-wire method (wire square to the micrometer's line,
-    lying in the helical groove); the lead-angle correction of H28 is its small-angle form.
+    lying in the helical groove); the lead-angle correction of H28 is its small-angle form;
+    Newton's method for a saddle point, golden-section search (Kiefer 1953) as the fallback.
     """
     w, p, l = _check_common(wire, pitch, lead)
     e = _positive(pd, "pitch diameter")
-    r = w / 2
-    tan_a = math.tan(form.half_angle_rad)
-    k = l / (2 * math.pi)
-    c0 = p / 4 - e / 2 * tan_a
-    cos, sin, sqrt = math.cos, math.sin, math.sqrt
-    _crest, top, bottom = _flank_limits(form)
-    root_apex = e / 2 - form.height * p / 2      # radius of the sharp root
-    rho_lo, rho_hi = root_apex + bottom * p, root_apex + top * p
-
-    def sink_limit(theta: float):
-        ct, st = cos(theta), sin(theta)
-        tct = tan_a * ct
-        c0ct = c0 * ct
-        kct = k * ct
-
-        def g(phi: float) -> float:
-            c = cos(phi)
-            b = sin(phi) * st - tct
-            if b > -1e-12:
-                return -math.inf
-            ee = kct * phi + c0ct
-            q = sqrt(b * b + c * c)
-            rho = (ee - r * c / q) / b
-            if rho_lo <= rho <= rho_hi:
-                return c * ee / b - r * q / b
-            # the flank exists only on its straight part: the depth is concave in ρ, so the
-            # largest depth there is at the nearer end
-            rho = rho_lo if rho < rho_lo else rho_hi
-            u = rho * b - ee
-            if abs(u) >= r:
-                return -math.inf
-            return rho * c + sqrt(r * r - u * u)
-
-        # The contact lies within a wire's reach of the plane of the wire: scan, then refine.
-        reach = min(1.2, 3 * (r + p) / max(e, 1e-9))
-        n = 16
-        step = 2 * reach / n
-        best_i, best_v = 0, -math.inf
-        for i in range(n + 1):
-            v = g(-reach + i * step)
-            if v > best_v:
-                best_i, best_v = i, v
-        lo = -reach + max(best_i - 1, 0) * step
-        hi = -reach + min(best_i + 1, n) * step
-        phi, x = _golden_max(g, lo, hi, 1e-7)
-        return x, phi
-
-    lam = math.atan(k / max(e / 2 - p / 2, e / 4))   # helix angle near the root: above the optimum
-    hi = min(1.3, 1.6 * lam + 1e-3)
-    lo = -1e-3 if k == 0 else 0.0
-    theta, _ = _golden_max(lambda t: -sink_limit(t)[0], lo, hi, 1e-6)
-    x, phi = sink_limit(theta)
-    ct, st = cos(theta), sin(theta)
-    b = sin(phi) * st - tan_a * ct
-    c = cos(phi)
-    u = -r * c / sqrt(b * b + c * c)
-    rho = min(max((u + (k * phi + c0) * ct) / b, rho_lo), rho_hi)
+    x, theta, phi, rho, _gr = _settle_cached(e, w, form, p, l)
     return WireContact(2 * x + w, x, math.degrees(theta), 2 * rho, math.degrees(phi))
 
 
@@ -415,7 +590,9 @@ def over_wires_exact(pd: float, wire: float, form: ThreadForm, pitch: float,
     pd [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
     References: see ``wire_contact``.
     """
-    return wire_contact(pd, wire, form, pitch, lead).over_wires
+    w, p, l = _check_common(wire, pitch, lead)
+    e = _positive(pd, "pitch diameter")
+    return 2 * _settle_cached(e, w, form, p, l)[0] + w
 
 
 def pd_exact(m: float, wire: float, form: ThreadForm, pitch: float,
@@ -423,17 +600,26 @@ def pd_exact(m: float, wire: float, form: ThreadForm, pitch: float,
     """Return the pitch diameter [mm] for a measurement over wires, exact helical-groove model.
 
     m: over wires [mm]; wire [mm]; pitch [mm]; lead [mm] (default: the pitch).
-    Solved by fixed-point steps E ← E + (m − M(E)) from the H28 value (dM/dE is close to 1).
-    References: see ``wire_contact``.
+    Solved by Newton steps E ← E + (m − M(E)) / M'(E) from the H28 value, M'(E) = 2·∂g/∂E at
+    the wire's seat (the seat's own shift does not change X to first order), each seat found
+    from the last one.
+    References: see ``wire_contact``; Newton's method, envelope theorem for M'(E).
     """
-    e = pd_h28(m, wire, form, pitch, lead)
+    w, p, l = _check_common(wire, pitch, lead)
+    e = pd_h28(m, w, form, p, l)
+    start = None
     for _ in range(25):
-        step = m - over_wires_exact(e, wire, form, pitch, lead)
+        x, theta, phi, _rho, gr = _settle(e, w, form, p, l, start)
+        slope = 2 * _depth_per_pd(phi, theta, gr)
+        if not 0.5 < slope < 2.0:       # never seen; a plain step still converges
+            slope = 1.0
+        step = (m - (2 * x + w)) / slope
         e += step
         if e <= 0:
             raise InvalidEntry("That reading is too small for this wire and pitch: check it.")
-        if abs(step) < 1e-10:
+        if abs(step) < 1e-11:
             break
+        start = (phi, theta)
     return e
 
 
