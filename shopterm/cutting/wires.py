@@ -341,6 +341,16 @@ class WireContact:
 _Groove = tuple  # (r, tan a, k, c0, rho_lo, rho_hi, reach, theta_lo, theta_hi)
 
 
+@lru_cache(maxsize=32)
+def _form_groove(form: ThreadForm) -> tuple[float, float, float, float]:
+    """Return (tan a, H/P, straight flank top/P, bottom/P) of ``form``, the last two from the root apex.
+
+    References: ``_flank_limits``.
+    """
+    _crest, top, bottom = _flank_limits(form)
+    return math.tan(form.half_angle_rad), form.height, top, bottom
+
+
 def _groove(e: float, w: float, form: ThreadForm, p: float, l: float) -> _Groove:
     """Return the constants of the groove a wire of diameter ``w`` [mm] lies in.
 
@@ -350,10 +360,9 @@ def _groove(e: float, w: float, form: ThreadForm, p: float, l: float) -> _Groove
     References: module docstring (NBS H28 three-wire geometry).
     """
     r = w / 2
-    tan_a = math.tan(form.half_angle_rad)
+    tan_a, height, top, bottom = _form_groove(form)
     k = l / (2 * math.pi)
-    _crest, top, bottom = _flank_limits(form)
-    root_apex = e / 2 - form.height * p / 2      # radius of the sharp root
+    root_apex = e / 2 - height * p / 2      # radius of the sharp root
     reach = min(1.2, 3 * (r + p) / max(e, 1e-9))
     lam = math.atan(k / max(e / 2 - p / 2, e / 4))   # helix angle near the root
     return (r, tan_a, k, p / 4 - e / 2 * tan_a, root_apex + bottom * p, root_apex + top * p,
@@ -559,6 +568,11 @@ def _settle(e: float, w: float, form: ThreadForm, p: float, l: float,
 
 @lru_cache(maxsize=512)
 def _settle_cached(e: float, w: float, form: ThreadForm, p: float, l: float):
+    """Return ``_settle`` from the plain-V start, remembered (the wire screen asks again and again).
+
+    e, w, p, l [mm], already checked.
+    References: module docstring.
+    """
     return _settle(e, w, form, p, l)
 
 
