@@ -247,12 +247,24 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
         if n_main < 1:
             raise InvalidEntry("With a finishing pass the plan needs at least 2 passes.")
     asked = n_main
-    while True:
-        cums = _continued_depths(start_radial, start_radial + main, n_main, kind)
-        incs = [b - a for a, b in zip((start_radial,) + cums, cums)]
-        if n_main == 1 or min(incs) >= min_pass - 1e-12:
-            break
-        n_main -= 1
+
+    def depths(n: int) -> tuple[float, ...]:
+        return _continued_depths(start_radial, start_radial + main, n, kind)
+
+    def deep_enough(n: int) -> bool:
+        cums = depths(n)
+        return n == 1 or min(b - a for a, b in zip((start_radial,) + cums, cums)) \
+            >= min_pass - 1e-12
+
+    # The smallest pass shrinks as passes are added (every plan kind here), so the most
+    # passes that keep every pass at or over the minimum is found by halving, not one by one.
+    if not deep_enough(n_main):
+        low, high = 1, n_main            # deep_enough(low) holds, deep_enough(high) does not
+        while high - low > 1:
+            mid = (low + high) // 2
+            low, high = (mid, high) if deep_enough(mid) else (low, mid)
+        n_main = low
+    cums = depths(n_main)
     if n_main < asked:
         notes_out.append(f"{asked} passes would cut less than the minimum pass "
                          f"({min_pass:.3f} mm): planned {n_main}" +

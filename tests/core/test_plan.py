@@ -195,3 +195,32 @@ def test_bore_to_prepare():
         bore_to_prepare(limits(parse("M10x1.5-6g")))
     inner = make_plan(0.7, infeed_method("modified", 60), passes=6, internal=True)
     assert any("boring bar" in c for c in inner.cautions)
+
+
+@settings(max_examples=100, deadline=None)
+@given(total=st.floats(0.05, 3.0), start_frac=st.sampled_from([0.0, 0.0, 0.3, 0.7]),
+       min_pass=st.floats(0.005, 0.1), max_first=st.floats(0.1, 0.4),
+       kind=st.sampled_from(["constant-area", "equal"]))
+def test_pass_count_is_the_most_that_keeps_every_pass_over_the_minimum(
+        total, start_frac, min_pass, max_first, kind):
+    # reference: drop one pass at a time until the smallest pass is at least the minimum
+    # (the rule the docstring states; computed here independently of make_plan)
+    start = total * start_frac
+    method = infeed_method("radial", 60)
+    plan = make_plan(total, method, kind=kind, min_pass=min_pass, max_first=max_first,
+                     start_radial=start, feed_dial=FINE, spring=0)
+    main = total - start
+    n = (passes_for_first(main, max_first, kind) if start <= 0 else
+         max(1, math.ceil(main / max_first - 1e-9)))
+    while n > 1:
+        if start <= 0:
+            cums = (constant_area_depths if kind == "constant-area" else equal_depths)(main, n)
+        elif kind == "equal":
+            cums = tuple(start + main * i / n for i in range(1, n + 1))
+        else:
+            cums = tuple(math.sqrt(start ** 2 + (total ** 2 - start ** 2) * i / n)
+                         for i in range(1, n + 1))
+        if min(b - a for a, b in zip((start,) + cums, cums)) >= min_pass - 1e-12:
+            break
+        n -= 1
+    assert len(plan.passes) == n
