@@ -44,24 +44,11 @@ def read_limits(pane: str) -> dict[str, dict[tuple[str, str], float | None]]:
     return out
 
 
-def choice_number(pane: str, label: str, heading: str) -> str | None:
-    """Return the digit shown before ``label`` in the numbered list under ``heading``, or None."""
-    lines = pane.splitlines()
-    start = next((i for i, ln in enumerate(lines) if heading in ln), None)
-    if start is None:
-        return None
-    pattern = re.compile(r"(?:^|\s)(\d) " + re.escape(label) + r"(?=\s{2}|\s*$)")
-    for ln in lines[start + 1:]:
-        if m := pattern.search(ln):
-            return m[1]
-    return None
-
-
 def pick(pane: tmux.Pane, heading: str, label: str, max_pages: int = 6) -> str:
     """Press the digit of ``label`` in the list under ``heading`` (turning pages with 0)."""
     text = pane.wait_for(heading)
     for _ in range(max_pages):
-        digit = choice_number(text, label, heading)
+        digit = tmux.choice_number(text, label, heading)
         if digit is not None:
             pane.send(digit)
             return digit

@@ -90,24 +90,11 @@ class Machine:
         self.pane.kill()
 
 
-def number_of(text: str, label: str, heading: str) -> str | None:
-    """Return the digit shown before ``label`` in the numbered list under ``heading``."""
-    lines = text.splitlines()
-    start = next((i for i, ln in enumerate(lines) if heading in ln), None)
-    if start is None:
-        return None
-    pattern = re.compile(r"(?:^|\s)(\d) " + re.escape(label) + r"(?=\s{2}|\s*$)")
-    for ln in lines[start + 1:]:
-        if m := pattern.search(ln):
-            return m[1]
-    return None
-
-
 def pick(m: Machine, heading: str, label: str, title: str, pages: int = 8) -> None:
     """Press the digit of ``label`` in the list under ``heading``, turning pages with 0."""
     text = m.wait(heading)
     for _ in range(pages):
-        digit = number_of(text, label, heading)
+        digit = tmux.choice_number(text, label, heading)
         if digit is not None:
             m.shot(title, text)
             m.keys(digit)
@@ -409,7 +396,7 @@ def export_card(m: Machine, data: Path, from_screen: bool) -> str:
     if from_screen:
         m.keys("*")
         text = m.wait("Go to")
-        digit = number_of(text, "Jobs and export", "Go to")
+        digit = tmux.choice_number(text, "Jobs and export", "Go to")
         assert digit, text
         m.keys(digit)
         text = m.wait("start a new job")

@@ -277,3 +277,16 @@ def start(workdir: Path, args: Iterable[str] = (), *, term: str = "xterm-256colo
          "--", *argv],
         env=full_env, capture_output=True, text=True, check=True, timeout=TIMEOUT)
     return pane
+
+
+def choice_number(text: str, label: str, heading: str) -> str | None:
+    """Return the digit shown before ``label`` in the numbered list under ``heading``, or None."""
+    lines = text.splitlines()
+    start = next((i for i, ln in enumerate(lines) if heading in ln), None)
+    if start is None:
+        return None
+    pattern = re.compile(r"(?:^|\s)(\d) " + re.escape(label) + r"(?=\s{2}|\s*$)")
+    for ln in lines[start + 1:]:
+        if m := pattern.search(ln):
+            return m[1]
+    return None
