@@ -50,7 +50,7 @@ def test_undo_removes_the_pass_and_keeps_both_entries():
     b.add("undo", target=p2.seq)
     assert [p.n for p in b.state.passes] == [1]
     assert b.state.next_pass == 2          # the undone pass is cut again as pass 2
-    assert b.state.radial_cum_mm == pytest.approx(0.1)
+    assert b.state.radial_cum_mm == pytest.approx(0.1)  # the entry typed above: record arithmetic, computed in the test
     assert [e.kind for e in b.state.events][-2:] == ["pass_cut", "undo"]
     assert p2.seq in b.state.undone
     assert fold(b.events) == b.state
@@ -173,7 +173,7 @@ def test_everything_a_resume_needs():
     assert s.checklist_done() == {"eye protection"}
     assert s.last_pass.dial == "1 turn + 5"
     assert s.radial_cum_mm == pytest.approx(0.15)  # the tool pick-up came last, no source
-    assert s.last_reading.state == "oversize" and s.last_reading.wire_mm == 0.733
+    assert s.last_reading.state == "oversize" and s.last_reading.wire_mm == 0.733  # the reading entered above, computed in the test
     assert (s.last_screen, s.last_screen_context) == ("wires", {"field": "measured"})
     assert s.pickups[0].reason == "reground"
 

@@ -47,6 +47,7 @@ def test_pick_up_compound_feed():
     done = 3
     up = pick_up(plan, done, feed_reading=70, cross_reading=55)
     done_div = plan.passes[2].dial_divisions
+    # computed: new zero = reading now − count done, modulo one turn (the pick-up rule)
     assert up.feed_zero.offset == pytest.approx((70 - done_div) % 100)
     assert up.cross_zero.offset == 55          # the cross-slide's return mark is where it is
     # the next pass is set done_div + its increment beyond the reading taken now
