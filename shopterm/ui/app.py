@@ -35,10 +35,13 @@ class ShoptermApp(App):
         self.spec = None           # the chosen ThreadSpec of the open job
         self._screens_by_name: dict[str, Screen] = {}
         self.current_name: str | None = None
+        self._start_notes: list[str] = []     # theme problems, shown once mounted
+        self._choose_theme()
 
     # -- start-up ----------------------------------------------------------------------------
     def on_mount(self) -> None:
-        self._apply_theme()
+        for note in self._start_notes:
+            self.notify(note, severity="warning", timeout=8)
         self._open_store()
         last = self.store.last_unfinished() if self.store is not None else None
         if last is not None and self.start_screen is None:
@@ -139,14 +142,13 @@ class ShoptermApp(App):
         if self.job is not None and self.job.health:
             self.notify(self.job.health, severity="error", timeout=15)
 
-    def _apply_theme(self) -> None:
-        from shopterm.ui.themes import apply_theme, load_themes
+    def _choose_theme(self) -> None:
+        """Set the configured theme before the stylesheet is first parsed (so it is parsed
+        once); keep the problems to show once mounted."""
+        from shopterm.ui.themes import load_themes, set_start_theme
         themes, problems = load_themes(self.config.theme_dirs)
-        for theme in themes:
-            self.register_theme(theme)
-        message = apply_theme(self, self.shop.theme, themes=themes)
-        for problem in problems + ([message] if message else []):
-            self.notify(problem, severity="warning", timeout=8)
+        message = set_start_theme(self, self.shop.theme, themes=themes)
+        self._start_notes = problems + ([message] if message else [])
 
     # -- screens -----------------------------------------------------------------------------
     def screen_for(self, name: str) -> Screen:

@@ -181,10 +181,45 @@ def apply_theme(app: App, name: str, fallback: str = DEFAULT_THEME,
         except InvalidThemeError:
             used = LAST_RESORT
             app.theme = LAST_RESORT
-        problems.append(f"No theme named '{name}' could be loaded; using '{used}'. Put the "
-                        f"theme file in {user_themes_dir()} or choose another theme "
-                        f"(display.theme).")
+        problems.append(_missing_words(name, used))
     use_console_glyphs(bool(app.current_theme.ansi))
+    return " ".join(problems) or None
+
+
+def _missing_words(name: str, used: str) -> str:
+    return (f"No theme named '{name}' could be loaded; using '{used}'. Put the theme file in "
+            f"{user_themes_dir()} or choose another theme (display.theme).")
+
+
+def set_start_theme(app: App, name: str, fallback: str = DEFAULT_THEME,
+                    themes: Iterable[Theme] | None = None) -> str | None:
+    """Return None after giving a not yet running ``app`` theme ``name``, or what went wrong.
+
+    The same choice and messages as ``apply_theme``, for ``App.__init__``: the theme is set
+    without Textual's theme watcher, so the stylesheet is parsed once, with this theme's
+    variables, instead of once with Textual's default theme and again after the switch.
+    References: Textual 8.2.8 ``App._watch_theme`` (what is done here, less the queued
+    ``refresh_css``), ``DOMNode.set_reactive``.
+    """
+    problems: list[str] = []
+    name = theme_for_terminal(name)
+    if themes is None:
+        themes, problems = load_themes()
+    for theme in themes:
+        app.register_theme(theme)
+    available = app.available_themes
+    used = next(n for n in (name, fallback, LAST_RESORT) if n in available)
+    if used != name:
+        problems.append(_missing_words(name, used))
+    app.set_reactive(App.theme, used)
+    theme = app.current_theme
+    classes = {c: False for c in app.classes if c.startswith("-theme-")}
+    classes.update({f"-theme-{theme.name}": True, "-dark-mode": theme.dark,
+                    "-light-mode": not theme.dark})
+    app.update_classes(classes, update=False)
+    app._refresh_truecolor_filter(app.ansi_theme)
+    app.stylesheet.set_variables(app.get_css_variables())
+    use_console_glyphs(bool(theme.ansi))
     return " ".join(problems) or None
 
 
