@@ -227,11 +227,23 @@ class GearTrain:
 class _TrainTable:
     """Every simple and compound train of one gear set, sorted by ratio (numpy arrays).
 
-    Each train is one int64 ``code`` over the indices into the sorted tooth list (m gears):
-    a simple train i > j is ``i*m + j``; a compound train A/B x C/D is
-    ``m*m + ((a*m + b)*m + c)*m + d``. Ordering codes orders trains by fewer gears, then by
-    teeth A, B, C, D: the tie-break inside one ratio.
+    Each train is one ``code`` over the indices into the sorted tooth list (m gears): a simple
+    train i > j is ``i*m + j``; a compound train A/B x C/D is ``m*m + ((a*m + b)*m + c)*m + d``.
+    Ordering codes orders trains by fewer gears, then by teeth A, B, C, D: the tie-break inside
+    one ratio. ``code`` is sorted by ratio, then by code, so the trains of one ratio
+    (``code[group_start[g]:group_end[g]]``, ratio ``unique_ratio[g]``) come best first.
+
+    How it is built without sorting every train's float ratio: a train's ratio is always
+    N / D with N and D from a short list of values (the teeth, for a simple train; the
+    products of two teeth, for a compound one: a few hundred for 30 gears). The small grid of
+    every N / D is ranked once; each train's key is then (rank << bits) | code, one int64, and
+    one plain sort of those keys orders the whole table. The m**4 compound keys are made a
+    block of rows at a time, so the big temporary arrays never exist (fresh memory is slow to
+    get on a small board).
     """
+
+    #: Compound keys worked out per block (about 0.5 MB of int64 at a time).
+    _BLOCK = 1 << 16
 
     def __init__(self, gears: tuple[tuple[int, int], ...], margin: int, compound: bool):
         import numpy as np
@@ -239,51 +251,106 @@ class _TrainTable:
         self.teeth = teeth = np.array([t for t, _ in gears], dtype=np.int64)
         owned = np.array([n for _, n in gears], dtype=np.int64)
         self.m = m = len(teeth)
-        tf = teeth.astype(np.float64)
-        codes, ratios = [], []
+        mm = m * m
+        bits = max(1, int(mm + (mm * mm if compound else 0)).bit_length())  # a key's code part
+
+        # Every numerator / denominator a train can have, and the rank of every N / D.
+        # Products of teeth are exact in float64; the quotient is correctly rounded, so equal
+        # rationals give equal floats and distinct ones (denominators < 2**26) differ.
+        prod = np.multiply.outer(teeth, teeth)
+        values, where = np.unique(np.concatenate([teeth, prod.ravel()]), return_inverse=True)
+        where = where.ravel()
+        v_one, v_two = where[:m], where[m:]                # place of t[i]; of t[a]*t[c] at a*m+c
+        vf = values.astype(np.float64)
+        grid = np.divide.outer(vf, vf).ravel()
+        order = np.argsort(grid)
+        in_order = grid[order]
+        new = np.empty(len(in_order), dtype=bool)
+        new[:1] = True
+        np.not_equal(in_order[1:], in_order[:-1], out=new[1:])
+        self._ratio_of_rank = in_order[new]
+        rank = np.cumsum(new, dtype=np.int64)
+        rank -= 1
+        rank <<= bits
+        high = np.empty_like(rank)                         # rank << bits, at [N's place, D's]
+        high[order] = rank
+        high = high.reshape(len(values), len(values))
+        del grid, order, in_order, new, rank
 
         # Simple trains: driver i, driven j; i == j needs two of that gear.
-        i, j = np.divmod(np.arange(m * m), m) if m else (np.zeros(0, np.int64),) * 2
+        i, j = np.divmod(np.arange(mm), m) if m else (np.zeros(0, np.int64),) * 2
         ok = (i != j) | (owned[i] >= 2)
-        codes.append(np.flatnonzero(ok))
-        ratios.append(tf[i[ok]] / tf[j[ok]])
+        simple = high[v_one[i[ok]], v_one[j[ok]]] | np.flatnonzero(ok)
 
         if compound and m:
-            # Compound A/B x C/D over all m**4 index choices at once.
-            ia, jb, kc, ld = np.ix_(*(np.arange(m),) * 4)
+            # Which compound A/B x C/D are allowed, over all m**4 index choices at once, laid
+            # out (A, C, B, D): one row per A, C pair and one column per B, D pair.
+            ia, kc, jb, ld = np.ix_(*(np.arange(m),) * 4)
             t16 = teeth.astype(np.int16)
-            ok = (t16[ia] + t16[jb] >= t16[kc] + margin) & (t16[kc] + t16[ld] >= t16[jb] + margin)
-            repeat = ((ia == jb) | (ia == kc) | (ia == ld) | (jb == kc) | (jb == ld)
-                      | (kc == ld))
-            flat = np.flatnonzero(ok & ~repeat)
+            allowed = np.empty((m,) * 4, dtype=bool)
+            np.greater_equal(t16[ia] + t16[jb], t16[kc] + margin, out=allowed)
+            allowed &= t16[kc] + t16[ld] >= t16[jb] + margin
+            repeat = (ia == kc) | (jb == ld)
+            for x, y in ((ia, jb), (ia, ld), (kc, jb), (kc, ld)):
+                repeat |= x == y
             if (owned >= 2).any():
                 # A gear used more than once: keep it only if that many are owned.
-                rep = np.flatnonzero(ok & repeat)
+                rep = np.flatnonzero(allowed & repeat)
                 q = np.stack(np.unravel_index(rep, (m,) * 4))           # 4 x n indices
                 use = (q[:, None, :] == q[None, :, :]).sum(axis=1)       # uses of each slot's gear
                 keep = (use <= owned[q]).all(axis=0)
-                flat = np.sort(np.concatenate([flat, rep[keep]]))
-            codes.append(m * m + flat)
-            # A*C and B*D are exact in float64; their quotient is correctly rounded, so equal
-            # rationals give equal floats and distinct ones (denominators < 2**26) differ.
-            ac = np.multiply.outer(tf, tf)
-            ratios.append((ac[:, None, :, None] / ac[None, :, None, :]).ravel()[flat])
+                allowed &= ~repeat
+                allowed.ravel()[rep[keep]] = True
+            else:
+                allowed &= ~repeat
+            del repeat
+            allowed = allowed.reshape(mm, mm)
+            count = np.count_nonzero(allowed, axis=1)
+            key = np.empty(len(simple) + int(count.sum()), dtype=np.int64)
+            key[:len(simple)] = simple
+            # Key of A/B x C/D: rank of (A*C) / (B*D), then the code, split into a part from
+            # A, C (the row) and a part from B, D (the column).
+            idx = np.arange(m, dtype=np.int64)
+            row_code = (mm + idx[:, None] * m ** 3 + idx[None, :] * m).ravel()
+            col_code = (idx[:, None] * mm + idx[None, :]).ravel()
+            rows = max(1, self._BLOCK // max(1, mm))
+            block = np.empty((min(rows, mm), mm), dtype=np.int64)
+            at = len(simple)
+            for r0 in range(0, mm, rows):
+                r1 = min(mm, r0 + rows)
+                b = block[:r1 - r0]
+                np.take(high[v_two[r0:r1]], v_two, axis=1, out=b, mode="clip")
+                b += row_code[r0:r1, None]
+                b += col_code
+                n = int(count[r0:r1].sum())
+                key[at:at + n] = b[allowed[r0:r1]]
+                at += n
+            del allowed, block
+        else:
+            key = simple
 
-        code = np.concatenate(codes)
-        ratio = np.concatenate(ratios)
-        order = np.argsort(ratio)
-        self.ratio = ratio[order]
-        self.code = code[order]
-        if len(self.ratio):
-            starts = np.flatnonzero(np.r_[True, self.ratio[1:] != self.ratio[:-1]])
+        key.sort()
+        code_dtype = np.int32 if bits < 31 else np.int64
+        self.code = np.empty(len(key), dtype=code_dtype)
+        np.bitwise_and(key, (1 << bits) - 1, out=self.code, casting="unsafe")
+        key >>= bits                                       # now the rank of each train's ratio
+        if len(key):
+            starts = np.flatnonzero(np.r_[True, key[1:] != key[:-1]])
         else:
             starts = np.zeros(0, np.int64)
         self.group_start = starts
-        self.group_end = np.r_[starts[1:], len(self.ratio)].astype(np.int64)
-        self.unique_ratio = self.ratio[starts]
+        self.group_end = np.r_[starts[1:], len(key)].astype(np.int64)
+        self.unique_ratio = self._ratio_of_rank[key[starts]]
+
+    @property
+    def ratio(self):
+        """Return the ratio of every train, in table order (numpy float64 array)."""
+        import numpy as np
+
+        return np.repeat(self.unique_ratio, self.group_end - self.group_start)
 
     def __len__(self) -> int:
-        return len(self.ratio)
+        return len(self.code)
 
     def decode(self, code: int) -> tuple[int, int, int, int]:
         """Return the teeth (A, B, C, D) of a coded train; C = D = 0 for a simple train."""
@@ -307,16 +374,14 @@ class _TrainTable:
             return
         pos = int(np.searchsorted(u, float(wanted)))
         lo, hi = max(0, pos - groups - 1), min(len(u), pos + groups + 1)
-        s0, e0 = int(self.group_start[lo]), int(self.group_end[hi - 1])
-        if per_ratio == 1:
-            best = np.minimum.reduceat(self.code[s0:e0], self.group_start[lo:hi] - s0)
-            for code in best.tolist():
-                yield self.decode(code)
-            return
-        for g in range(lo, hi):
-            s, e = int(self.group_start[g]), int(self.group_end[g])
-            for code in np.sort(self.code[s:e])[:per_ratio].tolist():
-                yield self.decode(code)
+        starts, ends = self.group_start[lo:hi], self.group_end[lo:hi]
+        if per_ratio == 1:                          # each ratio's trains come best first
+            codes = self.code[starts].tolist()
+        else:
+            codes = [c for s, e in zip(starts.tolist(), ends.tolist())
+                     for c in self.code[s:min(e, s + per_ratio)].tolist()]
+        for code in codes:
+            yield self.decode(code)
 
 
 def normalise_gears(gears: Iterable[tuple[int, int]] | Iterable[int]) -> tuple[tuple[int, int], ...]:
