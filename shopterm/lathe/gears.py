@@ -249,6 +249,7 @@ class _TrainTable:
         import numpy as np
 
         self.teeth = teeth = np.array([t for t, _ in gears], dtype=np.int64)
+        self._teeth_list = [int(t) for t, _ in gears]
         owned = np.array([n for _, n in gears], dtype=np.int64)
         self.m = m = len(teeth)
         mm = m * m
@@ -354,17 +355,17 @@ class _TrainTable:
 
     def decode(self, code: int) -> tuple[int, int, int, int]:
         """Return the teeth (A, B, C, D) of a coded train; C = D = 0 for a simple train."""
-        t, m = self.teeth, self.m
+        t, m = self._teeth_list, self.m
         if code < m * m:
             i, j = divmod(code, m)
-            return int(t[i]), int(t[j]), 0, 0
+            return t[i], t[j], 0, 0
         rest = code - m * m
         rest, d = divmod(rest, m)
         rest, c = divmod(rest, m)
         a, b = divmod(rest, m)
-        return int(t[a]), int(t[b]), int(t[c]), int(t[d])
+        return t[a], t[b], t[c], t[d]
 
-    def nearest(self, wanted: Fraction, groups: int, per_ratio: int):
+    def nearest(self, wanted: Fraction | float, groups: int, per_ratio: int):
         """Yield teeth (A, B, C, D) of trains in the ``groups`` distinct ratios either side of
         ``wanted``, at most ``per_ratio`` from each ratio (fewer gears, then teeth, first)."""
         import numpy as np
@@ -467,49 +468,59 @@ def find_trains(leadscrew: Leadscrew, lead: float | Fraction,
 
     # Exact ranking in integers: with q = base / wanted, a train of ratio num/den makes
     # q * num/den of the lead wanted, so its relative error is (qn*num - qd*den) / (qd*den).
+    # Over one common denominator (the lcm of every qd*den) the errors compare as integers.
     candidates = []
     for bi, pos in boxes:
         box_ratio = pos.ratio if pos is not None else Fraction(1)
         base = leadscrew.pitch_exact * fixed * box_ratio          # lead with a 1:1 train [mm]
         q = base / wanted
         qn, qd = q.numerator, q.denominator
+        bn, bd = base.numerator, base.denominator
         if pos is not None:
-            candidates.append(((abs(q - 1), 0, (0, 0, 0, 0), bi), (), (), 1, 1, pos, base))
+            candidates.append((abs(qn - qd), qd, 0, (0, 0, 0, 0), bi, (), (), 1, 1, pos,
+                               bn, bd))
         if table is None:
             continue
-        for a, b, c, d in table.nearest(1 / q, limit, per_ratio):
+        for a, b, c, d in table.nearest(qd / qn, limit, per_ratio):
             if c:
                 num, den, drivers, driven, ng = a * c, b * d, (a, c), (b, d), 4
             else:
                 num, den, drivers, driven, ng = a, b, (a,), (b,), 2
-            err = Fraction(abs(qn * num - qd * den), qd * den)
-            candidates.append(((err, ng, (a, b, c, d), bi), drivers, driven, num, den, pos,
-                               base))
+            candidates.append((abs(qn * num - qd * den), qd * den, ng, (a, b, c, d), bi,
+                               drivers, driven, num, den, pos, bn, bd))
 
-    candidates.sort(key=lambda t: t[0])
-    seen: dict[Fraction, int] = {}
+    common = math.lcm(*(t[1] for t in candidates)) if candidates else 1
+    candidates.sort(key=lambda t: (t[0] * (common // t[1]), t[2], t[3], t[4]))
+    seen: dict[tuple[int, int], int] = {}
     out: list[GearTrain] = []
-    for key, drivers, driven, num, den, pos, base in candidates:
-        made = base * Fraction(num, den)                          # lead made [mm]
+    wn, wd = wanted.numerator, wanted.denominator
+    for *_, drivers, driven, num, den, pos, bn, bd in candidates:
+        mn, md = bn * num, bd * den                               # lead made [mm] = mn / md
+        g = math.gcd(mn, md)
+        made = (mn // g, md // g)
         if seen.get(made, 0) >= per_ratio:
             continue
         seen[made] = seen.get(made, 0) + 1
-        out.append(_make_train(wanted, made, drivers, driven, Fraction(num, den), pos))
+        out.append(_make_train(wn, wd, mn, md, drivers, driven, num, den, pos))
         if len(out) >= limit:
             break
     return tuple(out)
 
 
-def _make_train(wanted: Fraction, made: Fraction, drivers, driven, r: Fraction,
+def _make_train(wn: int, wd: int, mn: int, md: int, drivers, driven, num: int, den: int,
                 pos: GearboxPosition | None) -> GearTrain:
-    rel = made / wanted - 1
+    """Return the GearTrain for lead wanted wn/wd and lead made mn/md [mm], ratio num/den.
+
+    Floats come from exact integer quotients (correctly rounded, as ``float(Fraction)``).
+    """
+    rn, rd = mn * wd - wn * md, md * wn                           # made / wanted - 1 = rn / rd
     kind: TrainKind = "box" if not drivers else ("simple" if len(drivers) == 1 else "compound")
     return GearTrain(
-        drivers=tuple(drivers), driven=tuple(driven), ratio=r,
-        lead_made_mm=float(made), error_pct=float(rel * 100), kind=kind,
-        lead_wanted_mm=float(wanted), box=pos.label if pos is not None else None,
-        exact=rel == 0, error_per_25mm=float(rel * 25),
-        error_per_inch=float(rel))
+        drivers=tuple(drivers), driven=tuple(driven), ratio=Fraction(num, den),
+        lead_made_mm=mn / md, error_pct=(rn * 100) / rd, kind=kind,
+        lead_wanted_mm=wn / wd, box=pos.label if pos is not None else None,
+        exact=rn == 0, error_per_25mm=(rn * 25) / rd,
+        error_per_inch=rn / rd)
 
 
 def trains_for_lathe(lathe: Lathe, lead: float | Fraction, *, limit: int = 8,
