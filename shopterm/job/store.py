@@ -199,6 +199,16 @@ class Store:
         return cls(data_dir(directory), if_locked=if_locked)
 
     @classmethod
+    def open_in_background(cls, directory: str | os.PathLike | None = None) -> "StoreOpening":
+        """Return a ``StoreOpening``: ``Store.open(directory)`` already running on a thread.
+
+        Opening waits on the disk (lock, ``quick_check``, WAL set-up, a fresh record's schema
+        committed with ``synchronous=FULL``); on a thread those waits overlap the app's own
+        start. ``opening.result()`` gives the store (or raises what ``open`` raised).
+        """
+        return StoreOpening(directory)
+
+    @classmethod
     def open_read_only(cls, directory: str | os.PathLike | None = None) -> "Store":
         """Return the store opened only for reading (no lock taken; for ``shopterm export``)."""
         return cls(data_dir(directory), lock=False)
@@ -227,7 +237,8 @@ class Store:
                                  "start shopterm there first, or give --data-dir.")
             try:
                 self._conn = sqlite3.connect(f"file:{self.path}?mode=ro", uri=True,
-                                             isolation_level=None, timeout=5)
+                                             isolation_level=None, timeout=5,
+                                             check_same_thread=False)
                 version = self._conn.execute("PRAGMA user_version").fetchone()[0]
             except sqlite3.DatabaseError as exc:
                 raise StoreError(f"The job record {self.path} cannot be read ({exc}); start "
@@ -254,7 +265,8 @@ class Store:
                         and Path(str(self.path) + "-wal").exists():
                     # SQLite would take an empty file for a new record and drop the log beside it.
                     raise sqlite3.DatabaseError("the record file is empty")
-                self._conn = sqlite3.connect(self.path, isolation_level=None, timeout=5)
+                self._conn = sqlite3.connect(self.path, isolation_level=None, timeout=5,
+                                             check_same_thread=False)
                 version = self._check()
                 break
             except sqlite3.OperationalError as exc:
@@ -529,6 +541,45 @@ class Store:
     def archive(self, job_id: int) -> Event:
         """Return the entry that archives job ``job_id`` (it leaves the usual list)."""
         return self.open_job(job_id).append("job_archived", {})
+
+
+class StoreOpening:
+    """``Store.open(directory)`` on its own thread; ``result()`` waits for it.
+
+    The store is handed over whole: nothing uses it until ``result()`` has returned, and its
+    connection is made with ``check_same_thread=False`` so the waiting thread may use it.
+    References: Python ``sqlite3`` (``check_same_thread``; the module releases the GIL while
+    SQLite works), ``threading``.
+    """
+
+    def __init__(self, directory: str | os.PathLike | None = None) -> None:
+        import threading
+        self._store: Store | None = None
+        self._error: BaseException | None = None
+        self._thread = threading.Thread(target=self._run, args=(directory,),
+                                        name="shopterm-store-open", daemon=True)
+        self._thread.start()
+
+    def _run(self, directory) -> None:
+        try:
+            self._store = Store.open(directory)
+        except BaseException as exc:  # noqa: BLE001 — handed to result(), raised there
+            self._error = exc
+
+    def result(self) -> Store:
+        """Return the opened store once it is open; raise what ``Store.open`` raised."""
+        self._thread.join()
+        if self._error is not None:
+            error, self._error = self._error, None
+            raise error
+        return self._store
+
+    def discard(self) -> None:
+        """Close the store if it opened (the app is not starting after all)."""
+        self._thread.join()
+        if self._store is not None:
+            self._store.close()
+            self._store = None
 
 
 class JobSession:

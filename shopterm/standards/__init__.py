@@ -24,8 +24,12 @@ import re
 from functools import lru_cache
 from types import ModuleType
 
+from typing import TYPE_CHECKING
+
 from shopterm.errors import InvalidEntry, UnknownThread
-from shopterm.standards.spec import Limits, ThreadSpec
+
+if TYPE_CHECKING:
+    from shopterm.standards.spec import Limits, ThreadSpec
 
 __all__ = ["parse", "limits", "catalogue", "format_designation", "classes", "family_module",
            "ThreadSpec", "Limits", "FAMILIES"]
@@ -46,6 +50,15 @@ FAMILY_TITLES: dict[str, str] = {
     "ba": "BA",
     "special": "Special",
 }
+
+def __getattr__(name: str):
+    """Return ``ThreadSpec`` / ``Limits`` from ``spec`` on first use (not imported at start:
+    the first screen lists thread families before any thread is made)."""
+    if name in ("ThreadSpec", "Limits"):
+        from shopterm.standards import spec
+        return getattr(spec, name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
 
 _HAND = re.compile(r"\s*[-\s]\s*(LH|RH)\s*$", re.IGNORECASE)
 _KIND = re.compile(r"\s+(internal|external|int|ext|nut|bolt)\.?\s*$", re.IGNORECASE)

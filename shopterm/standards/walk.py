@@ -8,9 +8,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from functools import lru_cache
+from typing import TYPE_CHECKING
 
 from shopterm.standards import catalogue
-from shopterm.standards.spec import ThreadSpec
+
+if TYPE_CHECKING:
+    from shopterm.standards.spec import ThreadSpec
 
 
 @dataclass(frozen=True)

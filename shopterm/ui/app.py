@@ -23,8 +23,12 @@ class ShoptermApp(App):
     TITLE = "shopterm"
 
     def __init__(self, config, *, data_dir: str | os.PathLike | None = None,
-                 start_screen: str | None = None) -> None:
+                 start_screen: str | None = None, store_opening=None) -> None:
+        """``store_opening``: a ``shopterm.job.store.StoreOpening`` already under way for
+        ``data_dir`` (``run_app`` starts one before reading the config); else the store is
+        opened on mount."""
         super().__init__()
+        self._store_opening = store_opening
         self.config = config
         self.lathe = config.lathe
         self.shop = config.shop
@@ -53,8 +57,10 @@ class ShoptermApp(App):
     # -- the job record ----------------------------------------------------------------------
     def _open_store(self) -> None:
         from shopterm.job.store import Store, StoreError
+        opening, self._store_opening = self._store_opening, None
         try:
-            self.store = Store.open(self.data_dir_arg)
+            self.store = (opening.result() if opening is not None
+                          else Store.open(self.data_dir_arg))
         except StoreError as exc:
             self.store = None
             self.notify(f"{exc} Nothing will be saved.", severity="error", timeout=30)
@@ -313,13 +319,21 @@ def run_app(config_path: str | None = None, data_dir: str | None = None) -> int:
     """Start the app; refuse to start with a config that is not valid. Returns the exit code."""
     from shopterm.config import load_config
     from shopterm.errors import ConfigError
+    from shopterm.job.store import Store
 
+    # The record opens on a thread meanwhile: its disk waits overlap reading the config and
+    # Textual's start; the app takes it on mount.
+    opening = Store.open_in_background(data_dir)
     try:
         config = load_config(config_path)
     except ConfigError as exc:
+        opening.discard()
         print(f"shopterm: {exc}\nFix that line (check it with: shopterm --check-config PATH), "
               "or start with --config pointing at another file.", file=sys.stderr)
         return 2
-    app = ShoptermApp(config, data_dir=data_dir)
+    except BaseException:
+        opening.discard()
+        raise
+    app = ShoptermApp(config, data_dir=data_dir, store_opening=opening)
     app.run()
     return app.return_code or 0

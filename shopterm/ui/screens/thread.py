@@ -11,13 +11,17 @@ from textual.app import ComposeResult
 from textual.widgets import Static
 
 from shopterm.errors import ShoptermError
+from typing import TYPE_CHECKING
+
 from shopterm.standards import classes, limits, parse, walk
-from shopterm.standards.spec import ThreadSpec
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.widgets.entry import KeypadEntry
 from shopterm.ui.widgets.picklist import PickList
 from shopterm.units import format_length
+
+if TYPE_CHECKING:
+    from shopterm.standards.spec import ThreadSpec
 
 STARTS_CYCLE = (1, 2, 3, 4, 5, 6, 8)
 NO_CLASS = "basic size"
