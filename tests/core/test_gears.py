@@ -323,3 +323,133 @@ def test_search_errors():
         normalise_gears([20.5])
     with pytest.raises(InvalidEntry):
         lead_made(ls, (20,), (40, 50))
+
+
+# ---------------------------------------------------------------------------------------------
+# The sorted table itself, against the itertools brute force (every train, grouped by ratio)
+
+def _table_trains(table):
+    """Return [(ratio as Fraction, (drivers, driven))] in table order, decoded from codes."""
+    out = []
+    for g in range(len(table.unique_ratio)):
+        for code in table.code[table.group_start[g]:table.group_end[g]].tolist():
+            a, b, c, d = table.decode(code)
+            drivers, driven = ((a, c), (b, d)) if c else ((a,), (b,))
+            ratio = Fraction(a * (c or 1), b * (d or 1))
+            out.append((g, ratio, (drivers, driven), code))
+    return out
+
+
+def _check_table(gears, margin, compound):
+    table = train_table(gears, margin, compound)
+    rows = _table_trains(table)
+    # every train the brute force allows is in the table once, and nothing else
+    assert {train for _, _, train, _ in rows} == _all_trains(gears, margin, compound)
+    assert len(rows) == len(table) == len(_all_trains(gears, margin, compound))
+    # one group per exact ratio, groups in increasing exact ratio, float = the ratio rounded
+    ratios = {}
+    for g, ratio, _, _ in rows:
+        assert ratios.setdefault(g, ratio) == ratio
+    group_ratios = [ratios[g] for g in sorted(ratios)]
+    assert group_ratios == sorted(set(group_ratios))
+    assert table.unique_ratio.tolist() == [float(r) for r in group_ratios]
+    assert table.ratio.tolist() == [float(r) for _, r, _, _ in rows]
+    # inside one ratio the codes come in increasing order: fewer gears, then teeth A, B, C, D
+    for g in ratios:
+        codes = [code for gg, _, _, code in rows if gg == g]
+        assert codes == sorted(codes)
+
+
+@pytest.mark.parametrize("gears", SMALL_SETS)
+@pytest.mark.parametrize("margin", [0, 15, 40])
+@pytest.mark.parametrize("compound", [True, False])
+def test_table_holds_every_train_grouped_by_exact_ratio(gears, margin, compound):
+    _check_table(gears, margin, compound)
+
+
+@settings(max_examples=40, deadline=None)
+@given(gears=st.lists(st.tuples(st.integers(1, 1000), st.integers(1, 3)), min_size=1,
+                      max_size=5),
+       margin=st.integers(0, 60), compound=st.booleans())
+def test_table_agrees_with_brute_force_on_random_sets(gears, margin, compound):
+    # up to MAX_TEETH = 1000 teeth: products to 10**6, ratios still told apart exactly
+    _check_table(normalise_gears(gears), margin, compound)
+
+
+def test_table_of_nearly_equal_big_gears():
+    # 997..1000 teeth: ratios such as 999*1000/(998*997) differ from their neighbours by
+    # parts in 10**12; each must still get a group of its own (checked with Fraction)
+    _check_table(normalise_gears([991, 997, 998, 999, 1000, (1000, 1)]), 0, True)
+
+
+def test_empty_and_single_gear_tables():
+    one = train_table(((40, 1),), 15, True)
+    assert len(one) == 0 and not len(one.unique_ratio)
+    assert find_trains(Leadscrew.from_tpi(8), 1.5, [40]) == ()
+    two = train_table(((40, 2),), 0, True)           # two 40s: 40/40 simple only
+    assert [t[2] for t in _table_trains(two)] == [((40,), (40,))]
+    four = train_table(((40, 4),), 0, True)          # four: also 40/40 x 40/40, after it
+    assert [t[2] for t in _table_trains(four)] == [((40,), (40,)), ((40, 40), (40, 40))]
+    _check_table(((40, 4),), 0, True)
+
+
+# ---------------------------------------------------------------------------------------------
+# Gearbox positions, against a brute force over every box and every train
+
+def brute_force_boxes(leadscrew_pitch, wanted, gears, boxes, *, margin=15, limit=8,
+                      per_ratio=1):
+    """Return [(box label, drivers, driven, ratio)] ranked as find_trains documents it."""
+    rows = []
+    for bi, pos in enumerate(boxes):
+        base = leadscrew_pitch * pos.ratio
+        rows.append(((abs(base / wanted - 1), 0, (0, 0, 0, 0), bi), pos.label, (), (),
+                     Fraction(1), base))
+        for drivers, driven in _all_trains(tuple(gears), margin, True):
+            r = Fraction(1)
+            for t in drivers:
+                r *= t
+            for t in driven:
+                r /= t
+            if len(drivers) == 2:
+                teeth = (drivers[0], driven[0], drivers[1], driven[1])
+            else:
+                teeth = (drivers[0], driven[0], 0, 0)
+            rows.append(((abs(base * r / wanted - 1), 2 * len(drivers), teeth, bi), pos.label,
+                         drivers, driven, r, base * r))
+    rows.sort(key=lambda row: row[0])
+    out, seen = [], {}
+    for _, label, drivers, driven, r, made in rows:
+        if seen.get(made, 0) >= per_ratio:
+            continue
+        seen[made] = seen.get(made, 0) + 1
+        out.append((label, drivers, driven, r))
+        if len(out) == limit:
+            break
+    return out
+
+
+@pytest.mark.parametrize("gears", SMALL_SETS[:3])
+@pytest.mark.parametrize("per_ratio", [1, 2])
+def test_gearbox_search_agrees_with_brute_force(gears, per_ratio):
+    # a three-position box (1/2, 1, 2; common practice, no source) on an 8 tpi leadscrew
+    ls = Leadscrew.from_tpi(8)
+    box = parse_gearbox("A=1/2,B=1,C=2")
+    for lead in LEADS:
+        got = [(t.box, t.drivers, t.driven, t.ratio)
+               for t in find_trains(ls, lead, gears, gearbox=box, limit=10,
+                                    per_ratio=per_ratio)]
+        assert got == brute_force_boxes(ls.pitch_exact, lead, gears, box, limit=10,
+                                        per_ratio=per_ratio), lead
+
+
+def test_reported_floats_are_the_exact_values_rounded():
+    # every float a train reports is its exact Fraction value rounded once (re-derived here)
+    ls = Leadscrew.from_tpi(8)
+    box = parse_gearbox("A=1/2,B=1")
+    for t in find_trains(ls, INCH / 19, SET_FIVES_127, gearbox=box, limit=12, per_ratio=2):
+        box_ratio = {"A": Fraction(1, 2), "B": Fraction(1)}[t.box]
+        made = lead_made(ls, t.drivers, t.driven, box_ratio=box_ratio)
+        rel = made / (INCH / 19) - 1
+        assert t.lead_made_mm == float(made) and t.lead_wanted_mm == float(INCH / 19)
+        assert t.error_pct == float(rel * 100) and t.error_per_inch == float(rel)
+        assert t.error_per_25mm == float(rel * 25) and t.exact == (rel == 0)
