@@ -233,17 +233,26 @@ class _TrainTable:
     one ratio. ``code`` is sorted by ratio, then by code, so the trains of one ratio
     (``code[group_start[g]:group_end[g]]``, ratio ``unique_ratio[g]``) come best first.
 
-    How it is built without sorting every train's float ratio: a train's ratio is always
-    N / D with N and D from a short list of values (the teeth, for a simple train; the
-    products of two teeth, for a compound one: a few hundred for 30 gears). The small grid of
-    every N / D is ranked once; each train's key is then (rank << bits) | code, one int64, and
-    one plain sort of those keys orders the whole table. The m**4 compound keys are made a
-    block of rows at a time, so the big temporary arrays never exist (fresh memory is slow to
-    get on a small board).
+    Each train gets one int64 key, (ratio key << bits) | code, and one plain sort of the keys
+    orders the whole table. The ratio key is exact either way:
+
+    - ``"float"``: the ratio's float64 bits with the low mantissa bits dropped. Every ratio is
+      N / D with 1 <= N, D <= P (P the biggest tooth count, squared for compound trains), so
+      two different ratios differ by at least 1 part in P**2; keeping more mantissa bits than
+      that keeps them apart, and the order of the bits is the order of the ratios. Used when
+      that many bits and the code fit in 63 (e.g. up to 60 gears of at most 127 teeth).
+    - ``"grid"``: otherwise, the rank of N / D in the small sorted grid of every numerator and
+      denominator a train can have (the teeth; the products of two teeth).
+
+    The m**4 compound keys are made a block of rows at a time, so no big temporary array is
+    ever made (fresh memory is slow to get).
     """
 
     #: Compound keys worked out per block (about 0.5 MB of int64 at a time).
     _BLOCK = 1 << 16
+
+    #: Use the float ratio key where it is exact (tests turn it off to check the grid).
+    use_float_key = True
 
     def __init__(self, gears: tuple[tuple[int, int], ...], margin: int, compound: bool):
         import numpy as np
@@ -254,34 +263,28 @@ class _TrainTable:
         self.m = m = len(teeth)
         mm = m * m
         bits = max(1, int(mm + (mm * mm if compound else 0)).bit_length())  # a key's code part
+        tf = teeth.astype(np.float64)
+        prod = np.multiply.outer(tf, tf).ravel()           # t[a] * t[c] at a*m + c, exact
 
-        # Every numerator / denominator a train can have, and the rank of every N / D.
-        # Products of teeth are exact in float64; the quotient is correctly rounded, so equal
-        # rationals give equal floats and distinct ones (denominators < 2**26) differ.
-        prod = np.multiply.outer(teeth, teeth)
-        values, where = np.unique(np.concatenate([teeth, prod.ravel()]), return_inverse=True)
-        where = where.ravel()
-        v_one, v_two = where[:m], where[m:]                # place of t[i]; of t[a]*t[c] at a*m+c
-        vf = values.astype(np.float64)
-        grid = np.divide.outer(vf, vf).ravel()
-        order = np.argsort(grid)
-        in_order = grid[order]
-        new = np.empty(len(in_order), dtype=bool)
-        new[:1] = True
-        np.not_equal(in_order[1:], in_order[:-1], out=new[1:])
-        self._ratio_of_rank = in_order[new]
-        rank = np.cumsum(new, dtype=np.int64)
-        rank -= 1
-        rank <<= bits
-        high = np.empty_like(rank)                         # rank << bits, at [N's place, D's]
-        high[order] = rank
-        high = high.reshape(len(values), len(values))
-        del grid, order, in_order, new, rank
+        p = (int(teeth.max()) if m else 1) ** (2 if compound else 1)   # every N, D <= p
+        shift = self._float_shift(p, bits)
+        if shift is not None:
+            # Float ratio key: float64 bits >> shift, counted from the smallest ratio, 1 / p.
+            self.keyed_by = "float"
+            offset = int(np.float64(1 / p).view(np.int64)) >> shift
+        else:
+            self.keyed_by = "grid"
+            high, v_one, v_two = self._grid_ranks(teeth, prod, bits)
 
         # Simple trains: driver i, driven j; i == j needs two of that gear.
         i, j = np.divmod(np.arange(mm), m) if m else (np.zeros(0, np.int64),) * 2
         ok = (i != j) | (owned[i] >= 2)
-        simple = high[v_one[i[ok]], v_one[j[ok]]] | np.flatnonzero(ok)
+        i, j = i[ok], j[ok]
+        if shift is not None:
+            simple = (((tf[i] / tf[j]).view(np.int64) >> shift) - offset) << bits
+        else:
+            simple = high[v_one[i], v_one[j]]
+        simple |= np.flatnonzero(ok)
 
         if compound and m:
             # Which compound A/B x C/D are allowed, over all m**4 index choices at once, laid
@@ -309,10 +312,12 @@ class _TrainTable:
             count = np.count_nonzero(allowed, axis=1)
             key = np.empty(len(simple) + int(count.sum()), dtype=np.int64)
             key[:len(simple)] = simple
-            # Key of A/B x C/D: rank of (A*C) / (B*D), then the code, split into a part from
-            # A, C (the row) and a part from B, D (the column).
+            # Key of A/B x C/D: the ratio key of (A*C) / (B*D), then the code, split into a
+            # part from A, C (the row) and a part from B, D (the column).
             idx = np.arange(m, dtype=np.int64)
             row_code = (mm + idx[:, None] * m ** 3 + idx[None, :] * m).ravel()
+            if shift is not None:
+                row_code -= offset << bits
             col_code = (idx[:, None] * mm + idx[None, :]).ravel()
             rows = max(1, self._BLOCK // max(1, mm))
             block = np.empty((min(rows, mm), mm), dtype=np.int64)
@@ -320,7 +325,12 @@ class _TrainTable:
             for r0 in range(0, mm, rows):
                 r1 = min(mm, r0 + rows)
                 b = block[:r1 - r0]
-                np.take(high[v_two[r0:r1]], v_two, axis=1, out=b, mode="clip")
+                if shift is not None:
+                    np.divide(prod[r0:r1, None], prod[None, :], out=b.view(np.float64))
+                    b >>= shift
+                    b <<= bits
+                else:
+                    np.take(high[v_two[r0:r1]], v_two, axis=1, out=b, mode="clip")
                 b += row_code[r0:r1, None]
                 b += col_code
                 n = int(count[r0:r1].sum())
@@ -334,14 +344,71 @@ class _TrainTable:
         code_dtype = np.int32 if bits < 31 else np.int64
         self.code = np.empty(len(key), dtype=code_dtype)
         np.bitwise_and(key, (1 << bits) - 1, out=self.code, casting="unsafe")
-        key >>= bits                                       # now the rank of each train's ratio
+        key >>= bits                                       # now each train's ratio key
         if len(key):
             starts = np.flatnonzero(np.r_[True, key[1:] != key[:-1]])
         else:
             starts = np.zeros(0, np.int64)
         self.group_start = starts
         self.group_end = np.r_[starts[1:], len(key)].astype(np.int64)
-        self.unique_ratio = self._ratio_of_rank[key[starts]]
+        # The float of each ratio, from its first train: (A*C) / (B*D), correctly rounded.
+        self.unique_ratio = np.zeros(0)
+        if len(starts):
+            first = self.code[starts].astype(np.int64)
+            one = first < mm                               # simple: c = i, d = j below
+            rest, d = np.divmod(np.where(one, first, first - mm), m)
+            rest, c = np.divmod(rest, m)
+            a, b = np.divmod(rest, m)
+            self.unique_ratio = (np.where(one, tf[c], prod[a * m + c])
+                                 / np.where(one, tf[d], prod[b * m + d]))
+
+    @staticmethod
+    def _float_shift(p: int, bits: int) -> int | None:
+        """Return how many float64 bits to drop for an exact ratio key, or None (use the grid).
+
+        p: the biggest numerator or denominator of a ratio; bits: the low bits of a key the
+        code takes.
+        References: IEEE 754 binary64 (correct rounding of a quotient; the argument is in the
+        class docstring).
+        """
+        if not _TrainTable.use_float_key:
+            return None
+        keep = (p * p).bit_length() + 1                    # mantissa bits that keep ratios apart
+        if keep > 52:
+            return None
+        shift = 52 - keep
+        import numpy as np
+
+        span = (int(np.float64(p).view(np.int64)) >> shift) \
+            - (int(np.float64(1 / p).view(np.int64)) >> shift)
+        return shift if span.bit_length() + bits <= 63 else None
+
+    @staticmethod
+    def _grid_ranks(teeth, prod, bits: int):
+        """Return (rank << bits at [N's place, D's place], place of each tooth, of each
+        product) over the sorted values every numerator and denominator can take.
+
+        References: none (exact: products of teeth are exact in float64 and each quotient is
+        correctly rounded, so equal rationals give equal floats and distinct ones differ).
+        """
+        import numpy as np
+
+        values, where = np.unique(np.concatenate([teeth.astype(np.float64), prod]),
+                                  return_inverse=True)
+        where = where.ravel()
+        grid = np.divide.outer(values, values).ravel()
+        order = np.argsort(grid)
+        in_order = grid[order]
+        new = np.empty(len(in_order), dtype=bool)
+        new[:1] = True
+        np.not_equal(in_order[1:], in_order[:-1], out=new[1:])
+        rank = np.cumsum(new, dtype=np.int64)
+        rank -= 1
+        rank <<= bits
+        high = np.empty_like(rank)
+        high[order] = rank
+        m = len(teeth)
+        return high.reshape(len(values), len(values)), where[:m], where[m:]
 
     @property
     def ratio(self):

@@ -7,7 +7,7 @@ import itertools
 from fractions import Fraction
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from shopterm.errors import InvalidEntry
@@ -70,6 +70,16 @@ def brute_force(leadscrew_pitch: Fraction, wanted: Fraction, gears, *, fixed=Fra
 
 def answers(trains: tuple[GearTrain, ...]):
     return [(t.drivers, t.driven, t.ratio) for t in trains]
+
+
+@pytest.fixture(params=["float", "grid"])
+def ratio_key(request, monkeypatch):
+    """Build tables with the float ratio key where it is exact ("float") or always the grid."""
+    from shopterm.lathe import gears
+    monkeypatch.setattr(gears._TrainTable, "use_float_key", request.param == "float")
+    train_table.cache_clear()
+    yield request.param
+    train_table.cache_clear()
 
 
 # ---------------------------------------------------------------------------------------------
@@ -154,7 +164,7 @@ LEADS = [Fraction(1), Fraction(3, 2), INCH / 11, INCH / 20, Fraction(7, 10), Fra
 @pytest.mark.parametrize("gears", SMALL_SETS)
 @pytest.mark.parametrize("leadscrew", [Leadscrew.from_tpi(8), Leadscrew.from_mm(3)])
 @pytest.mark.parametrize("per_ratio", [1, 3])
-def test_same_answers_and_order_as_brute_force(gears, leadscrew, per_ratio):
+def test_same_answers_and_order_as_brute_force(gears, leadscrew, per_ratio, ratio_key):
     for lead in LEADS:
         got = answers(find_trains(leadscrew, lead, gears, limit=10, per_ratio=per_ratio))
         want = brute_force(leadscrew.pitch_exact, lead, gears, limit=10, per_ratio=per_ratio)
@@ -341,7 +351,8 @@ def _table_trains(table):
 
 
 def _check_table(gears, margin, compound):
-    table = train_table(gears, margin, compound)
+    from shopterm.lathe.gears import _TrainTable
+    table = _TrainTable(gears, margin, compound)
     rows = _table_trains(table)
     # every train the brute force allows is in the table once, and nothing else
     assert {train for _, _, train, _ in rows} == _all_trains(gears, margin, compound)
@@ -358,31 +369,33 @@ def _check_table(gears, margin, compound):
     for g in ratios:
         codes = [code for gg, _, _, code in rows if gg == g]
         assert codes == sorted(codes)
+    return table
 
 
 @pytest.mark.parametrize("gears", SMALL_SETS)
 @pytest.mark.parametrize("margin", [0, 15, 40])
 @pytest.mark.parametrize("compound", [True, False])
-def test_table_holds_every_train_grouped_by_exact_ratio(gears, margin, compound):
-    _check_table(gears, margin, compound)
+def test_table_holds_every_train_grouped_by_exact_ratio(gears, margin, compound, ratio_key):
+    assert _check_table(gears, margin, compound).keyed_by == ratio_key
 
 
-@settings(max_examples=40, deadline=None)
+@settings(max_examples=40, deadline=None,
+          suppress_health_check=[HealthCheck.function_scoped_fixture])   # same key all along
 @given(gears=st.lists(st.tuples(st.integers(1, 1000), st.integers(1, 3)), min_size=1,
                       max_size=5),
        margin=st.integers(0, 60), compound=st.booleans())
-def test_table_agrees_with_brute_force_on_random_sets(gears, margin, compound):
+def test_table_agrees_with_brute_force_on_random_sets(gears, margin, compound, ratio_key):
     # up to MAX_TEETH = 1000 teeth: products to 10**6, ratios still told apart exactly
     _check_table(normalise_gears(gears), margin, compound)
 
 
-def test_table_of_nearly_equal_big_gears():
+def test_table_of_nearly_equal_big_gears(ratio_key):
     # 997..1000 teeth: ratios such as 999*1000/(998*997) differ from their neighbours by
     # parts in 10**12; each must still get a group of its own (checked with Fraction)
     _check_table(normalise_gears([991, 997, 998, 999, 1000, (1000, 1)]), 0, True)
 
 
-def test_empty_and_single_gear_tables():
+def test_empty_and_single_gear_tables(ratio_key):
     one = train_table(((40, 1),), 15, True)
     assert len(one) == 0 and not len(one.unique_ratio)
     assert find_trains(Leadscrew.from_tpi(8), 1.5, [40]) == ()
@@ -453,3 +466,15 @@ def test_reported_floats_are_the_exact_values_rounded():
         assert t.lead_made_mm == float(made) and t.lead_wanted_mm == float(INCH / 19)
         assert t.error_pct == float(rel * 100) and t.error_per_inch == float(rel)
         assert t.error_per_25mm == float(rel * 25) and t.exact == (rel == 0)
+
+
+def test_which_ratio_key():
+    # the float key needs 2*log2(P**2) + 1 mantissa bits and the code bits within 63: so it
+    # serves the usual sets (teeth up to 127, even 60 gears), the grid the big-tooth ones
+    from shopterm.lathe.gears import _TrainTable
+    usual = normalise_gears(SET_FIVES_127)
+    assert _TrainTable(usual, 15, True).keyed_by == "float"
+    assert _TrainTable._float_shift(127 ** 2, (60 ** 4 + 60 ** 2).bit_length()) is not None
+    big = normalise_gears(range(960, 1001, 2))        # 21 gears of 960..1000 teeth
+    assert _TrainTable(big, 15, True).keyed_by == "grid"
+    assert _TrainTable(big, 15, False).keyed_by == "float"     # simple only: P = 1000
