@@ -291,6 +291,7 @@ class _TrainTable:
             # out (A, C, B, D): one row per A, C pair and one column per B, D pair.
             ia, kc, jb, ld = np.ix_(*(np.arange(m),) * 4)
             t16 = teeth.astype(np.int16)
+            margin = min(margin, 2 * int(teeth.max()))     # more: no train passes either way
             allowed = np.empty((m,) * 4, dtype=bool)
             np.greater_equal(t16[ia] + t16[jb], t16[kc] + margin, out=allowed)
             allowed &= t16[kc] + t16[ld] >= t16[jb] + margin
@@ -316,8 +317,6 @@ class _TrainTable:
             # part from A, C (the row) and a part from B, D (the column).
             idx = np.arange(m, dtype=np.int64)
             row_code = (mm + idx[:, None] * m ** 3 + idx[None, :] * m).ravel()
-            if shift is not None:
-                row_code -= offset << bits
             col_code = (idx[:, None] * mm + idx[None, :]).ravel()
             rows = max(1, self._BLOCK // max(1, mm))
             block = np.empty((min(rows, mm), mm), dtype=np.int64)
@@ -328,6 +327,7 @@ class _TrainTable:
                 if shift is not None:
                     np.divide(prod[r0:r1, None], prod[None, :], out=b.view(np.float64))
                     b >>= shift
+                    b -= offset
                     b <<= bits
                 else:
                     np.take(high[v_two[r0:r1]], v_two, axis=1, out=b, mode="clip")

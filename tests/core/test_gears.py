@@ -395,6 +395,19 @@ def test_table_of_nearly_equal_big_gears(ratio_key):
     _check_table(normalise_gears([991, 997, 998, 999, 1000, (1000, 1)]), 0, True)
 
 
+def test_table_of_twelve_big_gears(ratio_key):
+    # 1..1000 teeth in 12 gears: the float key keeps 41 mantissa bits and 15 code bits, the
+    # most it ever packs (checked against the brute force with Fraction like the others)
+    table = _check_table(normalise_gears([1, 2, 3, 500, 991, 995, 996, 997, 998, 999, 1000, 7]),
+                         0, True)
+    assert table.keyed_by == ratio_key
+
+
+def test_huge_clearance_margin_leaves_simple_trains_only():
+    found = find_trains(Leadscrew.from_tpi(8), 1.5, SET_FIVES_127, margin=10**6, limit=20)
+    assert found and all(t.kind == "simple" for t in found)
+
+
 def test_empty_and_single_gear_tables(ratio_key):
     one = train_table(((40, 1),), 15, True)
     assert len(one) == 0 and not len(one.unique_ratio)
