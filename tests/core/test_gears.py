@@ -366,9 +366,8 @@ def _check_table(gears, margin, compound):
     assert table.unique_ratio.tolist() == [float(r) for r in group_ratios]
     assert table.ratio.tolist() == [float(r) for _, r, _, _ in rows]
     # inside one ratio the codes come in increasing order: fewer gears, then teeth A, B, C, D
-    for g in ratios:
-        codes = [code for gg, _, _, code in rows if gg == g]
-        assert codes == sorted(codes)
+    codes = [(g, code) for g, _, _, code in rows]
+    assert codes == sorted(codes)
     return table
 
 
