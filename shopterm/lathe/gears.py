@@ -295,20 +295,22 @@ class _TrainTable:
             allowed = np.empty((m,) * 4, dtype=bool)
             np.greater_equal(t16[ia] + t16[jb], t16[kc] + margin, out=allowed)
             allowed &= t16[kc] + t16[ld] >= t16[jb] + margin
-            repeat = (ia == kc) | (jb == ld)
-            for x, y in ((ia, jb), (ia, ld), (kc, jb), (kc, ld)):
-                repeat |= x == y
+            pairs = ((ia, kc), (jb, ld), (ia, jb), (ia, ld), (kc, jb), (kc, ld))
             if (owned >= 2).any():
                 # A gear used more than once: keep it only if that many are owned.
+                repeat = np.zeros((m,) * 4, dtype=bool)
+                for x, y in pairs:
+                    repeat |= x == y
                 rep = np.flatnonzero(allowed & repeat)
                 q = np.stack(np.unravel_index(rep, (m,) * 4))           # 4 x n indices
                 use = (q[:, None, :] == q[None, :, :]).sum(axis=1)       # uses of each slot's gear
                 keep = (use <= owned[q]).all(axis=0)
                 allowed &= ~repeat
                 allowed.ravel()[rep[keep]] = True
+                del repeat
             else:
-                allowed &= ~repeat
-            del repeat
+                for x, y in pairs:                         # four different gears
+                    allowed &= x != y
             allowed = allowed.reshape(mm, mm)
             count = np.count_nonzero(allowed, axis=1)
             key = np.empty(len(simple) + int(count.sum()), dtype=np.int64)
@@ -334,7 +336,8 @@ class _TrainTable:
                 b += row_code[r0:r1, None]
                 b += col_code
                 n = int(count[r0:r1].sum())
-                key[at:at + n] = b[allowed[r0:r1]]
+                np.take(b.ravel(), np.flatnonzero(allowed[r0:r1]), out=key[at:at + n],
+                        mode="clip")
                 at += n
             del allowed, block
         else:
