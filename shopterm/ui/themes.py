@@ -65,8 +65,13 @@ def _colour_ok(value: str) -> bool:
     return True
 
 
-def load_theme_file(path: Path) -> Theme:
-    """Return the Theme in the TOML file ``path``; raise ConfigError naming key and line."""
+def load_theme_file(path: Path, *, try_colours: bool = True) -> Theme:
+    """Return the Theme in the TOML file ``path``; raise ConfigError naming key and line.
+
+    try_colours: also have Textual derive the theme's whole colour system, so a theme it
+    cannot use is refused here; ``load_themes`` leaves that out for the shipped themes (the
+    tests try each of them; the theme in use is derived anyway when the app starts).
+    """
     try:
         text = path.read_text(encoding="utf-8")
     except (OSError, UnicodeDecodeError) as exc:
@@ -77,11 +82,10 @@ def load_theme_file(path: Path) -> Theme:
         m = re.search(r"at line (\d+)", str(exc))
         raise ConfigError(f"this theme file is not valid TOML ({exc}). Correct the line.",
                           path=str(path), line=int(m[1]) if m else None) from None
-    lines = key_lines(text)
-
     def bad(where: tuple, message: str) -> ConfigError:
+        # the key -> line map is made only for a message (it costs as much as the parse)
         return ConfigError(message, path=str(path), key=dotted(where),
-                           line=line_of(lines, where))
+                           line=line_of(key_lines(text), where))
 
     for key in data:
         if key not in _ALLOWED:
@@ -122,7 +126,8 @@ def load_theme_file(path: Path) -> Theme:
                          f"not allowed here). Write \"#rrggbb\" or \"ansi_blue\".")
     try:
         theme = Theme(**data)
-        theme.to_color_system().generate()
+        if try_colours:
+            theme.to_color_system().generate()
     except Exception as exc:  # noqa: BLE001 - a user's file must never stop the app
         raise ConfigError(f"Textual cannot use this theme ({exc}).", path=str(path)) from None
     return theme
@@ -147,7 +152,7 @@ def load_themes(extra_dirs: Iterable[str | os.PathLike] = ()) -> tuple[list[Them
             continue
         for path in sorted(folder.glob("*.toml")):
             try:
-                theme = load_theme_file(path)
+                theme = load_theme_file(path, try_colours=n > 0)
             except ConfigError as exc:
                 problems.append(f"{exc} The theme is skipped.")
                 continue

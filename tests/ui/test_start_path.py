@@ -59,3 +59,32 @@ async def test_background_refusal_shows_not_saving_and_the_app_goes_on(sample_co
         assert "NOT SAVING" in screen_text(app).splitlines()[0]
         assert any(sev == "error" and "Nothing will be saved" in m for m, sev in said), said
         assert "Thread family" in screen_text(app)              # still usable
+
+
+def test_user_themes_are_still_tried_whole_but_shipped_ones_only_in_use(tmp_path, monkeypatch):
+    # load_themes leaves Textual's colour-system derivation out for the shipped themes only;
+    # a user's theme that Textual cannot use is still refused (and reported) at start.
+    from textual.theme import Theme
+
+    from shopterm.ui import themes as th
+    tried: list[str] = []
+    real = Theme.to_color_system
+
+    def spy(self):
+        tried.append(self.name)
+        if self.name == "workshop":
+            raise ValueError("no colour system")
+        return real(self)
+
+    monkeypatch.setattr(Theme, "to_color_system", spy)
+    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "cfg"))
+    folder = tmp_path / "cfg" / "shopterm" / "themes"
+    folder.mkdir(parents=True)
+    (folder / "workshop.toml").write_text('name = "workshop"\nprimary = "#224488"\n',
+                                          encoding="utf-8")
+    found, problems = th.load_themes()
+    assert tried == ["workshop"]
+    assert "workshop" not in [t.name for t in found]
+    assert {"shop-bright", "shop-dark", "shop-console"} <= {t.name for t in found}
+    assert len(problems) == 1 and "Textual cannot use this theme" in problems[0]
+    assert "workshop.toml" in problems[0]
