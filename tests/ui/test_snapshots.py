@@ -187,10 +187,14 @@ def check_screen(app, name: str, lines: list[str], size: tuple[int, int]) -> lis
 
 @pytest.mark.parametrize("theme", THEMES)
 @pytest.mark.parametrize("size", SIZES, ids=[f"{w}x{h}" for w, h in SIZES])
-async def test_every_screen_fits_and_matches_its_golden_text(make_app, tmp_path, size, theme):
+async def test_every_screen_fits_and_matches_its_golden_text(sample_config, make_app, tmp_path,
+                                                             size, theme):
+    from shopterm.ui.app import ShoptermApp
     width, height = size
-    app = make_app(start_screen="thread")
-    app.shop = dataclasses.replace(app.shop, theme=theme)
+    make_app()  # sets the private config and data folders for this test
+    config = dataclasses.replace(
+        sample_config, shop=dataclasses.replace(sample_config.shop, theme=theme))
+    app = ShoptermApp(config, data_dir=tmp_path / "data", start_screen="thread")
     problems: dict[str, list[str]] = {}
     changed: list[str] = []
     async with app.run_test(size=size) as pilot:
