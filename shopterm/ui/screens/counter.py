@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 from rich.text import Text
 from textual.app import ComposeResult
-from textual.containers import Horizontal
+from textual.containers import Horizontal, Vertical
 from textual.widgets import Digits, ProgressBar, Static
 
 from shopterm.cutting.infeed import METHODS, infeed_method
@@ -265,6 +265,8 @@ class CounterScreen(ShopScreen):
 
     DEFAULT_CSS = """
     CounterScreen #head { height: auto; padding: 0 1; text-style: bold; }
+    CounterScreen #work { height: auto; }
+    CounterScreen #notes { height: auto; }
     CounterScreen #prep { height: auto; padding: 0 1; }
     CounterScreen #od-row { height: 1; padding: 0 1; }
     CounterScreen #od { width: 34; padding: 0 0; }
@@ -299,19 +301,24 @@ class CounterScreen(ShopScreen):
         with Horizontal(id="od-row"):
             yield LengthEntry(prompt="1 blank OD: ", id="od")
             yield Static("", id="od-hint")
-        yield Static("", id="prep")
-        with Horizontal(id="dial-row"):
-            yield Digits("", id="dial-big")
-            yield Static("", id="dial-text")
-        yield Static("", id="cut-info")
-        yield ProgressBar(total=1.0, show_eta=False, show_percentage=True, id="bar")
-        yield Static("", id="next")
+        # What is not on an entry's line sits in boxes of its own (#work, #notes): a key typed
+        # into an entry repaints that line and the boxes, not every widget on the screen (the
+        # compositor redraws each widget whose container overlaps the change).
+        with Vertical(id="work"):
+            yield Static("", id="prep")
+            with Horizontal(id="dial-row"):
+                yield Digits("", id="dial-big")
+                yield Static("", id="dial-text")
+            yield Static("", id="cut-info")
+            yield ProgressBar(total=1.0, show_eta=False, show_percentage=True, id="bar")
+            yield Static("", id="next")
         with Horizontal(id="value-row"):
             yield Static("", id="value-label")
             yield LengthEntry(id="value")
-        yield PickList(id="methods", columns=2)
-        yield Static("", id="message", classes="message")
-        yield Static("", id="extra")
+        with Vertical(id="notes"):
+            yield PickList(id="methods", columns=2)
+            yield Static("", id="message", classes="message")
+            yield Static("", id="extra")
 
     def on_mount(self) -> None:
         super().on_mount()
@@ -719,6 +726,9 @@ class CounterScreen(ShopScreen):
             self.draft["method"] = event.value
             self.say(f"Infeed: {METHOD_NAMES[event.value]}.")
             self.end_edit()
+
+    def on_keypad_entry_changed(self, event: KeypadEntry.Changed) -> None:
+        event.stop()        # typing is this screen's business: nothing above it listens
 
     def on_keypad_entry_submitted(self, event: KeypadEntry.Submitted) -> None:
         event.stop()

@@ -19,7 +19,7 @@ from dataclasses import dataclass, replace
 from rich.text import Text
 from textual import events, on
 from textual.app import ComposeResult
-from textual.containers import Horizontal
+from textual.containers import Horizontal, Vertical
 from textual.widgets import Digits, Static
 
 from shopterm.errors import InvalidEntry, ShoptermError
@@ -168,6 +168,8 @@ class WiresScreen(ShopScreen):
     TITLE = "Wire reading"
     AUTO_FOCUS = "#reading"
     DEFAULT_CSS = """
+    WiresScreen #above { height: auto; }
+    WiresScreen #below { height: auto; }
     WiresScreen #wires-head { height: auto; max-height: 4; padding: 0 1; }
     WiresScreen #wire-list { display: none; }
     WiresScreen #fit-list { display: none; }
@@ -201,23 +203,29 @@ class WiresScreen(ShopScreen):
         self.draft = ""            # the entry's text not yet confirmed (kept over a re-compose)
 
     def compose_body(self) -> ComposeResult:
-        yield Static("", id="wires-head")
-        yield PickList(id="wire-list", columns=2)
-        yield PickList(id="fit-list", columns=1)
+        # What is above and below the entry sits in containers of its own: a key typed into the
+        # entry then repaints the entry's line and these two boxes, not every widget on the
+        # screen (the compositor redraws each widget whose container overlaps the change).
+        with Vertical(id="above"):
+            yield Static("", id="wires-head")
+            yield PickList(id="wire-list", columns=2)
+            yield PickList(id="fit-list", columns=1)
         yield KeypadEntry(prompt="Reading over wires: ", id="reading")
-        yield Static("", id="message", classes="message")
-        yield Static("", id="set-line")
-        with Horizontal(id="feed"):
-            yield Digits("", id="feed-digits")
-            yield Static("", id="feed-text")
-        yield Static("", id="feed-how")
-        yield Static("", id="state-line")
-        yield Static("", id="detail")
-        yield Static("", id="picture")
-        yield Static("", id="chart")
+        with Vertical(id="below"):
+            yield Static("", id="message", classes="message")
+            yield Static("", id="set-line")
+            with Horizontal(id="feed"):
+                yield Digits("", id="feed-digits")
+                yield Static("", id="feed-text")
+            yield Static("", id="feed-how")
+            yield Static("", id="state-line")
+            yield Static("", id="detail")
+            yield Static("", id="picture")
+            yield Static("", id="chart")
         yield Static("", id="caution", classes="caution")
 
     def on_mount(self) -> None:
+        self._message_line = self.query_one("#message", Static)   # looked at on every key
         super().on_mount()
         # The app may have taken this screen down while another was shown (it is composed
         # again then): bring back what was typed and not yet confirmed.
@@ -228,10 +236,11 @@ class WiresScreen(ShopScreen):
 
     @on(KeypadEntry.Changed, "#reading")
     def entry_changed(self, event: KeypadEntry.Changed) -> None:
+        event.stop()        # typing is this screen's business: nothing above it listens
         if type(event) is not KeypadEntry.Changed:   # Enter, not typing
             return
         self.draft = event.value
-        if event.value and self.query_one("#message", Static).has_class("info"):
+        if event.value and self._message_line.has_class("info"):
             self.say("")    # "reading taken" is old news once the next one is being typed
 
     def on_screen_resume(self) -> None:
