@@ -40,18 +40,51 @@ class ShoptermApp(App):
         self._screens_by_name: dict[str, Screen] = {}
         self.current_name: str | None = None
         self._start_notes: list[str] = []     # theme problems, shown once mounted
+        self._started = False
+        self._resume_offer = None             # the unfinished job to ask about, on mount
+        self._goto_on_mount: str | None = None
         self._choose_theme()
 
     # -- start-up ----------------------------------------------------------------------------
-    def on_mount(self) -> None:
+    def get_default_screen(self) -> Screen:
+        """Return the screen the app starts on, as the first screen of the stack.
+
+        The record is opened first (the screen may list recent jobs). Starting on our own
+        screen instead of pushing it over Textual's blank one saves building, laying out and
+        painting a second screen, and a frame, before the first screen is ready. A start
+        screen that is not a registry screen (or fails to load) is left to ``goto`` on mount.
+        References: Textual 8.2.8 ``App.get_default_screen`` / ``App._init_mode``.
+        """
+        if self._started:
+            return super().get_default_screen()
+        self._started = True
         for note in self._start_notes:
             self.notify(note, severity="warning", timeout=8)
         self._open_store()
         last = self.store.last_unfinished() if self.store is not None else None
         if last is not None and self.start_screen is None:
-            self._offer_resume(last)
-        else:
-            self.goto(self.start_screen or "thread")
+            self._resume_offer = last          # asked over the thread screen, on mount
+        name = self.start_screen or "thread"
+        if name in REGISTRY:
+            try:
+                screen = self.screen_for(name)
+            except ImportError:
+                pass                           # goto on mount says so and goes on
+            else:
+                # what push_screen does for a screen (as _init_mode does for a MODES screen):
+                # its own CSS loaded, a result callback so switch_screen can replace it
+                self._load_screen_css(screen)
+                screen._push_result_callback(screen, None)
+                self.current_name = name
+                return screen
+        self._goto_on_mount = name
+        return super().get_default_screen()
+
+    def on_mount(self) -> None:
+        if self._resume_offer is not None:
+            self._offer_resume(self._resume_offer)
+        elif self._goto_on_mount is not None:
+            self.goto(self._goto_on_mount)
         self.notify(f"Config: {self.config.path} ({self.config.how_found})", timeout=4)
 
     # -- the job record ----------------------------------------------------------------------
