@@ -85,7 +85,9 @@ class ShoptermApp(App):
             self._offer_resume(self._resume_offer)
         elif self._goto_on_mount is not None:
             self.goto(self._goto_on_mount)
-        self.notify(f"Config: {self.config.path} ({self.config.how_found})", timeout=4)
+        # After the first paint: the screen is there to use a frame sooner; the toast follows.
+        self.call_after_refresh(self.notify, f"Config: {self.config.path} "
+                                f"({self.config.how_found})", timeout=4)
 
     # -- the job record ----------------------------------------------------------------------
     def _open_store(self) -> None:
