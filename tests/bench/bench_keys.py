@@ -43,7 +43,8 @@ What is measured, and why it is fair:
   designation entry) is measured instead and the report says so.
 
 ``key_work_ratio`` is the largest of the measured screens' net medians over the baseline's.
-This uses private names: ``Screen._on_timer_update`` (textual is pinned to 8.2.8) and the
+This uses private names: ``App._context`` (so each app paints as itself, not as the app
+started last), ``Screen._on_timer_update`` (textual is pinned to 8.2.8) and the
 standard asyncio loop's ``_ready`` queue (CPython 3.11; without it the harness falls back to
 ``Pilot._wait_for_screen``).
 """
@@ -129,7 +130,8 @@ async def quiesce(pilot, spins: int = 100_000) -> None:
 async def settle(pilot) -> None:
     """Handle everything queued, paint the dirty region now, and handle what that queued."""
     await quiesce(pilot)
-    pilot.app.screen._on_timer_update()
+    with pilot.app._context():          # paint as this app (else only the last app started paints)
+        pilot.app.screen._on_timer_update()
     await quiesce(pilot)
 
 

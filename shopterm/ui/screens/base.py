@@ -71,6 +71,8 @@ class ShopScreen(Screen):
         self.refresh_chrome()
 
     def on_screen_resume(self) -> None:
+        if self.app.screen is not self:   # a late resume, or a second call from a subclass
+            return
         self.refresh_chrome()
         self.app.screen_shown(self.SCREEN_NAME)
 
