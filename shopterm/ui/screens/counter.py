@@ -180,7 +180,7 @@ def cut_from_record(spec, lathe, state) -> Cut:
         if what == "reading":
             aim = current.get("aim_pd_mm") or lim.pd_mid
             plan = replan(plan, m.pd_mm, aim, done_radial, pd_min=lim.pd_min, pd_max=lim.pd_max)
-            replanned = f"wire reading: PD {m.pd_mm:.4f} mm"
+            replanned = f"wire reading: PD {m.pd_mm:.4f} mm = {m.pd_mm / 25.4:.4f} in"
         else:
             values = dict(m.values)
             if all(values.get(k) == current.get(k) for k in CUT_KEYS):
