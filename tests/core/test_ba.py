@@ -3,7 +3,6 @@
 Check values are from ../shared/reference/published-values.md §4 unless marked.
 """
 
-import importlib
 import math
 from decimal import ROUND_HALF_UP, Decimal
 
@@ -15,24 +14,6 @@ import shopterm.standards as standards
 from shopterm.errors import InvalidEntry, ShoptermError, UnknownThread, UnsupportedClass
 from shopterm.standards import ba
 from shopterm.standards.forms import BA_47_5
-
-
-@pytest.fixture
-def registry(monkeypatch):
-    """The registry, asking only the families whose modules load (others are being written)."""
-    present = {}
-    for key, mod in standards.FAMILIES.items():
-        try:
-            importlib.import_module(mod)
-        except Exception:
-            continue
-        present[key] = mod
-    monkeypatch.setattr(standards, "FAMILIES", present)
-    standards.catalogue.cache_clear()
-    standards._designations.cache_clear()
-    yield standards
-    standards.catalogue.cache_clear()
-    standards._designations.cache_clear()
 
 
 def _round_mm(x: str) -> float:

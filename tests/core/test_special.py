@@ -3,7 +3,6 @@
 Check values are from ../shared/reference/published-values.md unless marked.
 """
 
-import importlib
 
 import pytest
 from hypothesis import given, settings
@@ -15,24 +14,6 @@ from shopterm.standards import special as sp
 from shopterm.standards.forms import BA_47_5, ISO_60, WHITWORTH_55
 
 IN = 25.4  # exact, NIST SP 811
-
-
-@pytest.fixture
-def registry(monkeypatch):
-    """The registry, asking only the families whose modules load (others are being written)."""
-    present = {}
-    for key, mod in standards.FAMILIES.items():
-        try:
-            importlib.import_module(mod)
-        except Exception:
-            continue
-        present[key] = mod
-    monkeypatch.setattr(standards, "FAMILIES", present)
-    standards.catalogue.cache_clear()
-    standards._designations.cache_clear()
-    yield standards
-    standards.catalogue.cache_clear()
-    standards._designations.cache_clear()
 
 
 # --- basic proportions of each form ------------------------------------------------------------

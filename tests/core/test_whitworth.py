@@ -3,7 +3,6 @@
 Check values are from ../shared/reference/published-values.md §3 unless marked.
 """
 
-import importlib
 import math
 
 import pytest
@@ -16,24 +15,6 @@ from shopterm.standards import whitworth as w
 from shopterm.standards.forms import WHITWORTH_55
 
 IN = 25.4  # exact, NIST SP 811
-
-
-@pytest.fixture
-def registry(monkeypatch):
-    """The registry, asking only the families whose modules load (others are being written)."""
-    present = {}
-    for key, mod in standards.FAMILIES.items():
-        try:
-            importlib.import_module(mod)
-        except Exception:
-            continue
-        present[key] = mod
-    monkeypatch.setattr(standards, "FAMILIES", present)
-    standards.catalogue.cache_clear()
-    standards._designations.cache_clear()
-    yield standards
-    standards.catalogue.cache_clear()
-    standards._designations.cache_clear()
 
 
 # --- the form --------------------------------------------------------------------------------
