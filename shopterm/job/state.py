@@ -266,6 +266,13 @@ def apply(state: JobState, event: Event) -> JobState:
     raise InvalidEntry(f"{kind!r} is not something a job records.")  # pragma: no cover
 
 
+#: The JobState list that holds the entries of each undoable kind.
+_LIST_OF_KIND = {"thread_chosen": "threads", "setup_confirmed": "setups",
+                 "checklist_item": "checklist", "pass_cut": "passes",
+                 "spring_pass": "spring_passes", "wire_reading": "readings",
+                 "tool_pickup": "pickups", "note": "notes"}
+
+
 def _undo(before: JobState, s: JobState, target_seq: int) -> JobState:
     target = before.event(target_seq)
     if target is None:
@@ -285,22 +292,9 @@ def _undo(before: JobState, s: JobState, target_seq: int) -> JobState:
     s = replace(s, undone=s.undone | {target_seq})
     drop = lambda recs: tuple(r for r in recs if r.seq != target_seq)  # noqa: E731
     k = target.kind
-    if k == "thread_chosen":
-        return replace(s, threads=drop(s.threads))
-    if k == "setup_confirmed":
-        return replace(s, setups=drop(s.setups))
-    if k == "checklist_item":
-        return replace(s, checklist=drop(s.checklist))
-    if k == "pass_cut":
-        return replace(s, passes=drop(s.passes))
-    if k == "spring_pass":
-        return replace(s, spring_passes=drop(s.spring_passes))
-    if k == "wire_reading":
-        return replace(s, readings=drop(s.readings))
-    if k == "tool_pickup":
-        return replace(s, pickups=drop(s.pickups))
-    if k == "note":
-        return replace(s, notes=drop(s.notes))
+    if k in _LIST_OF_KIND:
+        field_name = _LIST_OF_KIND[k]
+        return replace(s, **{field_name: drop(getattr(s, field_name))})
     if k == "job_finished":
         return replace(s, finished_seq=None)
     if k == "job_archived":

@@ -16,6 +16,7 @@ import shopterm
 from shopterm.errors import InvalidEntry
 from shopterm.job.state import fold
 from shopterm.job.store import DB_NAME, Store, StoreError
+from tests.fakes import FailingConnection
 
 REPO = Path(shopterm.__file__).resolve().parent.parent
 
@@ -104,21 +105,6 @@ def test_corrupt_or_truncated_record_is_kept_aside_and_a_fresh_one_started(tmp_p
     assert kept.name in message                   # and the user is told where
     with Store.open(tmp_path) as s:               # the fresh record works and is kept
         assert s.message is None and len(s.jobs()) == 1
-
-
-class FailingConnection:
-    """Stands in for the store's sqlite3 connection; writes fail while ``error`` is set."""
-
-    def __init__(self, real):
-        self.real, self.error = real, None
-
-    def execute(self, sql, *args):
-        if self.error and sql.lstrip().upper().startswith(("INSERT", "UPDATE")):
-            raise sqlite3.OperationalError(self.error)
-        return self.real.execute(sql, *args)
-
-    def __getattr__(self, name):
-        return getattr(self.real, name)
 
 
 @pytest.mark.parametrize("error, words", [

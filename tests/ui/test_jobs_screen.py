@@ -18,6 +18,7 @@ from tests.ui.conftest import screen_lines, screen_text
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 from tests.glyphs import missing_glyphs  # noqa: E402
+from tests.fakes import FailingConnection
 
 pytestmark = pytest.mark.asyncio
 
@@ -200,21 +201,6 @@ async def test_export_that_cannot_be_written_says_so_and_keeps_the_screen(make_a
         (data / "exports").unlink()
         await pilot.press(pick_option(app, "csv"))
         assert (data / "exports" / f"job-{jid}.csv").exists()
-
-
-class FailingConnection:
-    """Stands in for the store's sqlite3 connection; writes fail while ``error`` is set."""
-
-    def __init__(self, real):
-        self.real, self.error = real, None
-
-    def execute(self, sql, *args):
-        if self.error and sql.lstrip().upper().startswith(("INSERT", "UPDATE")):
-            raise sqlite3.OperationalError(self.error)
-        return self.real.execute(sql, *args)
-
-    def __getattr__(self, name):
-        return getattr(self.real, name)
 
 
 async def test_not_saving_is_shown_and_retry_writes_what_was_kept(make_app, tmp_path):
