@@ -37,8 +37,24 @@ def limits_dict(lim: Limits, unit: str) -> dict:
         "minor": {"max": length_out(lim.minor_max, unit), "min": length_out(lim.minor_min, unit)},
         "depth": length_out(lim.depth, unit),
         "lead_angle_deg": round(lim.lead_angle_deg, 4),
+        "clearance": length_out(lim.clearance, unit),
+        "tip_flat": length_out(lim.tip_flat, unit),
+        "taper": taper_dict(lim.taper, unit),
         "notes": list(lim.notes),
     }
+
+
+def taper_dict(taper, unit: str) -> dict | None:
+    """Return a tapered thread's taper as ``calc limits --json`` prints it (None: parallel)."""
+    if taper is None:
+        return None
+    return {"per_unit_on_diameter": taper.per_unit_on_diameter,
+            "half_angle_deg": round(taper.half_angle_deg, 6),
+            "gauge_plane_from_end": length_out(taper.gauge_plane_from_end, unit),
+            "gauge_plane_tolerance": length_out(taper.gauge_plane_tolerance, unit),
+            "gauge_diameter": length_out(taper.gauge_diameter, unit),
+            "E0": length_out(taper.E0, unit), "E1": length_out(taper.E1, unit),
+            "L1": length_out(taper.L1, unit), "L2": length_out(taper.L2, unit)}
 
 
 def run(args) -> int:

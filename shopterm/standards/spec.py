@@ -84,6 +84,15 @@ class Limits:
     notes: tuple[str, ...] = ()
     root_radius_min: float | None = None   # external root radius rule [mm], where the standard has one
     root_radius_max: float | None = None
+    #: Power threads: the crest/root clearance the standard adds (ISO 2904 ac, ASME B1.5 minor
+    #: diameter clearance) [mm]; None for forms that have none.
+    clearance: float | None = None
+    #: Flat at the tip of the tool that cuts this thread's root [mm] (ISO 2904 root width at d3,
+    #: ASME B1.5 0.3707p - 0.259 x clearance); None where the root is rounded or not a flat.
+    tip_flat: float | None = None
+    #: Tapered threads: the taper and where the thread is gauged; None for parallel threads.
+    #: The diameters above are then those at the gauge plane.
+    taper: "Taper | None" = None
 
     @property
     def lead_angle_deg(self) -> float:
@@ -99,6 +108,37 @@ class Limits:
     def pd_tolerance(self) -> float:
         """Return the width of the pitch-diameter band [mm]."""
         return self.pd_max - self.pd_min
+
+
+@dataclass(frozen=True)
+class Taper:
+    """A tapered thread's taper and where it is gauged. Lengths in mm.
+
+    ``per_unit_on_diameter`` is the change of diameter per unit of length (1/16 for ISO 7-1 and
+    ASME B1.20.1). ``gauge_plane_from_end`` is the distance from the small end of an external
+    thread to its gauge plane (ISO 7-1 gauge length; NPT: L1, where E1 lies).
+    ``gauge_diameter`` is the diameter the standard gauges there (ISO 7-1: the major diameter
+    at the gauge plane; NPT: None, E0 and E1 given instead). ``gauge_plane_tolerance`` is the
+    ± axial position allowed for the gauge plane [mm].
+    """
+
+    per_unit_on_diameter: float
+    gauge_plane_from_end: float
+    gauge_plane_tolerance: float
+    gauge_diameter: float | None = None
+    E0: float | None = None          # pitch diameter at the small end (NPT) [mm]
+    E1: float | None = None          # pitch diameter at the hand-tight plane (NPT) [mm]
+    L1: float | None = None          # hand-tight engagement [mm]
+    L2: float | None = None          # effective (useful) thread length [mm]
+
+    @property
+    def half_angle_deg(self) -> float:
+        """Return the angle of the taper to the axis [deg]: atan(k / 2)."""
+        return math.degrees(math.atan(self.per_unit_on_diameter / 2))
+
+    def diameter_shift(self, distance: float) -> float:
+        """Return how much larger a diameter is ``distance`` [mm] further towards the large end."""
+        return distance * self.per_unit_on_diameter
 
 
 def inch(value_in: float) -> float:
