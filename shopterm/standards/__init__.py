@@ -40,6 +40,9 @@ FAMILIES: dict[str, str] = {
     "unified": "shopterm.standards.unified",
     "whitworth": "shopterm.standards.whitworth",
     "ba": "shopterm.standards.ba",
+    "trapezoidal": "shopterm.standards.trapezoidal",
+    "acme": "shopterm.standards.acme",
+    "square": "shopterm.standards.square",
     "special": "shopterm.standards.special",
 }
 
@@ -48,6 +51,9 @@ FAMILY_TITLES: dict[str, str] = {
     "unified": "Unified inch",
     "whitworth": "Whitworth form (BSW, BSF, ME)",
     "ba": "BA",
+    "trapezoidal": "ISO metric trapezoidal (Tr)",
+    "acme": "Acme and stub Acme",
+    "square": "Square (no standard)",
     "special": "Special",
 }
 
@@ -85,7 +91,7 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
         raise InvalidEntry("Type a thread designation such as M10x1.5-6g, 1/4-20 UNC-2A, "
                            "3/8 BSW, 2BA or 1/4x40 ME.")
     s = " ".join(text.strip().split())
-    hand = "RH"
+    hand = None
     for _ in range(2):
         if m := _HAND.search(s):
             hand = m.group(1).upper()
@@ -108,7 +114,7 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
                        if family == "iso" else "use A for external, B for internal."))
             spec = spec.with_(kind=kind)
             _check_class(spec)
-        return spec.with_(hand=hand) if hand != spec.hand else spec
+        return spec.with_(hand=hand) if hand is not None and hand != spec.hand else spec
     raise UnknownThread(f"{text.strip()!r} is not a thread designation shopterm knows.",
                         suggest(s))
 
@@ -129,7 +135,10 @@ def limits(spec: ThreadSpec) -> Limits:
 
 def format_designation(spec: ThreadSpec) -> str:
     """Return the designation of ``spec`` written as its standard writes it."""
-    text = family_module(spec.family).format(spec)
+    module = family_module(spec.family)
+    text = module.format(spec)
+    if getattr(module, "WRITES_HAND", False):   # the family writes the hand its standard's way
+        return text
     return text + " LH" if spec.hand == "LH" else text
 
 

@@ -2,7 +2,7 @@
 
 References: ISO 68-1 (60° basic profile); ASME B1.1 (Unified, same basic profile);
 BS 84 (Whitworth form, 55°); BS 93 (BA form, 47.5°); ISO 2901 (trapezoidal, 30°);
-ASME B1.5 (Acme, 29°). Factors as printed in ../shared/reference/published-values.md.
+ASME B1.5 (Acme, 29°); ASME B1.8 (stub Acme, 29°); square thread (no standard). Factors as printed in ../shared/reference/published-values.md.
 """
 
 from __future__ import annotations
@@ -18,7 +18,9 @@ class ThreadForm:
     ``crest_trunc`` is the distance from the sharp-V apex at the external crest down to the
     basic major diameter line; ``root_trunc`` the distance from the sharp-V root up to the basic
     minor diameter line (the internal crest). ``crest_radius``/``root_radius`` are the basic
-    rounding radii for rounded forms (0 for flat-crested forms).
+    rounding radii for rounded forms (0 for flat-crested forms: the power-screw forms).
+    The crest flat of the basic profile is 2·crest_trunc·tan(angle/2)·P (0.366P trapezoidal,
+    0.3707P Acme, 0.4224P stub Acme); the square form has angle 0 and flats of P/2.
     """
 
     key: str
@@ -79,8 +81,18 @@ TRAPEZOIDAL_30 = ThreadForm("trap30", "Trapezoidal 30°", 30.0, 1.866025, (1.866
 ACME_29 = ThreadForm("acme29", "Acme 29°", 29.0, _sharp_height(29.0),
                      (_sharp_height(29.0) - 0.5) / 2, (_sharp_height(29.0) - 0.5) / 2)
 
+#: ASME B1.8 stub Acme (29°): basic depth 0.3P, so crest and root flats 0.4224P.
+STUB_ACME_29 = ThreadForm("stubacme29", "Stub Acme 29°", 29.0, _sharp_height(29.0),
+                          (_sharp_height(29.0) - 0.3) / 2, (_sharp_height(29.0) - 0.3) / 2)
+#: Square thread (no standard): straight flanks, depth 0.5P, pitch line at half depth.
+#: There is no sharp-V apex, so ``height`` is the depth itself and both truncations are 0.
+SQUARE_0 = ThreadForm("square0", "Square", 0.0, 0.5, 0.0, 0.0)  # common practice, no source
+
+#: Every flanked form by key. SQUARE_0 is left out: it has no flank angle, so nothing that works
+#: from one (three wires, compound infeed) applies to it.
 FORMS: dict[str, ThreadForm] = {f.key: f for f in
-                                (ISO_60, UNIFIED_60, WHITWORTH_55, BA_47_5, TRAPEZOIDAL_30, ACME_29)}
+                                (ISO_60, UNIFIED_60, WHITWORTH_55, BA_47_5, TRAPEZOIDAL_30, ACME_29,
+                                 STUB_ACME_29)}
 
 
 def form_for_angle(angle_deg: float) -> ThreadForm:

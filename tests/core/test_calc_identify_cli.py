@@ -22,7 +22,8 @@ def run_json(capsys, *argv):
 
 
 def test_json_shape_and_top_candidate(capsys):
-    data = run_json(capsys, "--major", "9.96", "--pitch", "1.5")
+    # a 60° gauge: Tr10x1.5 (ISO 2902) has the same major and pitch, only the angle tells
+    data = run_json(capsys, "--major", "9.96", "--pitch", "1.5", "--angle", "60")
     assert set(data) >= {"candidates", "to_tell_apart", "ambiguous", "note"}
     top = data["candidates"][0]
     assert set(top) >= {"designation", "score", "why"}

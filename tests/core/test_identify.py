@@ -174,8 +174,9 @@ def test_nut_identified_from_its_minor_diameter():
     assert top.designation == "M10x1.5"
     assert top.spec.kind == "internal" and top.spec.tol_class == "6H"
     assert "8.376" in top.why
-    worn = identify(minor=8.676 + 0.08, pitch=1.5).candidates[0]    # nut crests wear open
-    tight = identify(minor=8.376 - 0.08, pitch=1.5).candidates[0]
+    # a 60° gauge: a Tr10x1.5-7H nut (ISO 2902/2903, D1 8.5 to 8.69) is as near on minor alone
+    worn = identify(minor=8.676 + 0.08, pitch=1.5, angle=60).candidates[0]  # crests wear open
+    tight = identify(minor=8.376 - 0.08, pitch=1.5, angle=60).candidates[0]
     assert worn.designation == "M10x1.5"
     assert worn.score > tight.score
 
