@@ -14,7 +14,8 @@ Each family lives in its own module and offers the same five functions:
     the classes the family's tables give for this size and kind (for the list walk).
 
 The registry below strips what all families share (``LH``, a trailing ``internal``/``external``)
-and asks each family in turn.
+and asks each family in turn. A family with ``WRITES_HAND = True`` writes the hand in its own
+``format`` (``Tr20x4LH``, ``3/4-6 ACME-2G-LH``); the registry adds `` LH`` for the others.
 """
 
 from __future__ import annotations
@@ -89,7 +90,7 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
     """
     if not isinstance(text, str) or not text.strip():
         raise InvalidEntry("Type a thread designation such as M10x1.5-6g, 1/4-20 UNC-2A, "
-                           "3/8 BSW, 2BA or 1/4x40 ME.")
+                           "3/8 BSW, 2BA, 1/4x40 ME, Tr20x4-7e or 1-5 ACME-2G.")
     s = " ".join(text.strip().split())
     hand = None
     for _ in range(2):

@@ -19,11 +19,11 @@ class ThreadSpec:
 
     Lengths in mm. ``tpi`` is set for threads designated by threads per inch.
     ``tol_class`` is the class as the standard writes it (``6g``, ``4h6h``, ``6H``, ``2A``,
-    ``3B``, ``medium``, ``close``, ``normal``, ``free``) or None for basic size only.
+    ``3B``, ``7e``, ``7H``, ``2G``) or None (basic size, or the family's usual class).
     """
 
-    family: str                  # "iso", "unified", "whitworth", "ba", "special"
-    series: str                  # "M", "MF", "UNC", "UNF", "UNEF", "8-UN", "BSW", "BSF", "ME", "BA", "special"
+    family: str                  # "iso", "unified", "whitworth", "ba", "trapezoidal", "acme", "square", "special"
+    series: str                  # "M", "UNC", ..., "BSW", "BA", "Tr", "ACME", "STUB ACME", "SQUARE", "special"
     size: str                    # as written: "M10", "1/4", "#10", "2BA", "0.750"
     major: float                 # basic major diameter [mm]
     pitch: float                 # [mm]
@@ -66,7 +66,8 @@ class Limits:
     """Limits of size of one thread, all diameters in mm.
 
     ``None`` means the standard sets no limit there (e.g. internal major max).
-    ``depth`` is the basic thread depth on radius (ISO h3 for external, H1 for internal).
+    ``depth`` is the basic thread depth on radius (ISO h3 for external, H1 for internal;
+    trapezoidal h3 = H4 = 0.5P + ac; Acme 0.5p + c/2, stub Acme 0.3p + c/2).
     ``lead_angle_deg`` is the helix angle at the basic pitch diameter: atan(L / (π d2)).
     """
 
@@ -84,8 +85,10 @@ class Limits:
     notes: tuple[str, ...] = ()
     root_radius_min: float | None = None   # external root radius rule [mm], where the standard has one
     root_radius_max: float | None = None
-    #: Power threads: the crest/root clearance the standard adds (ISO 2904 ac, ASME B1.5 minor
-    #: diameter clearance) [mm]; None for forms that have none.
+    #: Power threads: the crest/root clearance the standard adds [mm]: ISO 2904 ac (on radius)
+    #: for Tr; the ASME B1.5/B1.8 minor diameter clearance (on diameter: 0.020 in for 10 tpi and
+    #: coarser, 0.010 in finer) for Acme; the nut's clearance for a square thread. ``depth``
+    #: already includes it. None for forms that have none.
     clearance: float | None = None
     #: Flat at the tip of the tool that cuts this thread's root [mm] (ISO 2904 root width at d3,
     #: ASME B1.5 0.3707p - 0.259 x clearance); None where the root is rounded or not a flat.
