@@ -229,7 +229,13 @@ def format(spec: ThreadSpec) -> str:
     default_unit = "in" if spec.tpi is not None else "mm"
     d = _g(from_mm(spec.major, unit)) + ("" if unit == default_unit else unit)
     p = f"{_g(spec.tpi)}TPI" if spec.tpi is not None else _g(spec.pitch)
-    parts = [f"SPECIAL {d}x{p}", f"{spec.form.angle_deg:g}"]
+    return " ".join([f"SPECIAL {d}x{p}", f"{spec.form.angle_deg:g}", *fit_words(spec)])
+
+
+def fit_words(spec: ThreadSpec) -> list[str]:
+    """Return the fit written after a user-fitted thread's size: ``A…``, ``T…``, ``TD…`` (in the
+    spec's own unit), ``S<starts>`` and ``internal``, each only when it says something."""
+    unit, parts = spec.native_unit, []
     if spec.allowance and float(a := _g(from_mm(abs(spec.allowance), unit))) != 0:
         parts.append(f"A{a}")
     if spec.pd_tolerance is not None:
@@ -240,7 +246,7 @@ def format(spec: ThreadSpec) -> str:
         parts.append(f"S{spec.starts}")
     if spec.kind == "internal":
         parts.append("internal")
-    return " ".join(parts)
+    return parts
 
 
 def limits(spec: ThreadSpec) -> Limits:

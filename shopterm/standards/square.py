@@ -21,6 +21,7 @@ import re
 
 from shopterm.errors import InvalidEntry
 from shopterm.standards.forms import SQUARE_0
+from shopterm.standards.special import fit_words
 from shopterm.standards.spec import Limits, ThreadSpec
 from shopterm.units import MM_PER_INCH, Unit, from_mm, parse_number, to_mm
 
@@ -86,19 +87,9 @@ def parse(text: str) -> ThreadSpec | None:
 
 def format(spec: ThreadSpec) -> str:  # noqa: A001 - the family contract's name
     """Return ``SQUARE 25x5`` / ``SQUARE 1-5`` with the fit and starts given."""
-    unit = spec.native_unit
-    head = (f"SQUARE {spec.size}x{_g(spec.pitch)}" if unit == "mm"
+    head = (f"SQUARE {spec.size}x{_g(spec.pitch)}" if spec.native_unit == "mm"
             else f"SQUARE {spec.size}-{_g(spec.tpi)}")
-    parts = [head]
-    if spec.allowance:
-        parts.append(f"A{_g(from_mm(abs(spec.allowance), unit))}")
-    if spec.pd_tolerance is not None:
-        parts.append(f"T{_g(from_mm(spec.pd_tolerance, unit))}")
-    if spec.starts != 1:
-        parts.append(f"S{spec.starts}")
-    if spec.kind == "internal":
-        parts.append("internal")
-    return " ".join(parts)
+    return " ".join([head, *fit_words(spec)])
 
 
 def limits(spec: ThreadSpec) -> Limits:
