@@ -22,8 +22,8 @@ class ThreadSpec:
     ``3B``, ``7e``, ``7H``, ``2G``) or None (basic size, or the family's usual class).
     """
 
-    family: str                  # "iso", "unified", "whitworth", "ba", "trapezoidal", "acme", "square", "special"
-    series: str                  # "M", "UNC", ..., "BSW", "BA", "Tr", "ACME", "STUB ACME", "SQUARE", "special"
+    family: str                  # a key of standards.FAMILIES: "iso", "unified", ... "special"
+    series: str                  # "M", "UNC", ..., "BSW", "BA", "Tr", "ACME", "STUB ACME", ...
     size: str                    # as written: "M10", "1/4", "#10", "2BA", "0.750"
     major: float                 # basic major diameter [mm]
     pitch: float                 # [mm]

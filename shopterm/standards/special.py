@@ -233,8 +233,9 @@ def format(spec: ThreadSpec) -> str:
 
 
 def fit_words(spec: ThreadSpec) -> list[str]:
-    """Return the fit written after a user-fitted thread's size: ``A…``, ``T…``, ``TD…`` (in the
-    spec's own unit), ``S<starts>`` and ``internal``, each only when it says something."""
+    """Return the fit written after a user-fitted thread's size: ``A…``, ``T…``, ``TD…``
+    (in the spec's own unit), ``S<starts>`` and ``internal``, each only when it says something.
+    """
     unit, parts = spec.native_unit, []
     if spec.allowance and float(a := _g(from_mm(abs(spec.allowance), unit))) != 0:
         parts.append(f"A{a}")

@@ -2,9 +2,9 @@
 
 No printed B1.5/B1.8 table was at hand. The expected values are worked by hand in inches from
 the B1.5 formulas as remembered (each step in the comment), rounded to 0.0001 in as the
-tables print: PD allowance 2G 0.008√D, 3G 0.006√D, 4G 0.004√D; PD tolerance 2G
-0.006√D + 0.030√p, 3G 0.0028√D + 0.014√p, 4G 0.002√D + 0.010√p; clearance 0.020 in (10 tpi
-and coarser) or 0.010 in; major/minor crest tolerance 0.05p (at least 0.005 in); external minor
+tables print: PD allowance 2G 0.008√D, 3G 0.006√D, 4G 0.004√D; PD tolerance
+2G 0.006√D + 0.030√p, 3G 0.0028√D + 0.014√p, 4G 0.002√D + 0.010√p; clearance 0.020 in
+(10 tpi and coarser) or 0.010 in; major/minor crest tolerance 0.05p (at least 0.005 in); external minor
 tolerance 1.5 × PD tolerance.
 """
 
@@ -58,7 +58,8 @@ def test_1_5_acme_2g_external(registry):
 ])
 def test_3_4_6_classes(registry, cls, pd_max, pd_min):
     lim = registry.limits(registry.parse(f"3/4-6 ACME-{cls}"))
-    assert (inches(lim.pd_max), inches(lim.pd_min)) == (pd_max, pd_min)   # B1.5 formulas (from memory)
+    # B1.5 formulas (from memory)
+    assert (inches(lim.pd_max), inches(lim.pd_min)) == (pd_max, pd_min)
 
 
 @pytest.mark.parametrize("cls, pd_max, pd_min", [
@@ -68,7 +69,8 @@ def test_3_4_6_classes(registry, cls, pd_max, pd_min):
 ])
 def test_2_4_classes(registry, cls, pd_max, pd_min):
     lim = registry.limits(registry.parse(f"2-4 ACME-{cls}"))
-    assert (inches(lim.pd_max), inches(lim.pd_min)) == (pd_max, pd_min)   # B1.5 formulas (from memory)
+    # B1.5 formulas (from memory)
+    assert (inches(lim.pd_max), inches(lim.pd_min)) == (pd_max, pd_min)
     assert inches(lim.major_min) == 1.9875          # 2 - 0.05 x 0.25
 
 

@@ -69,7 +69,7 @@ def test_root_flat_is_the_tool_tip(pitch, flat):
 def test_tr20x4_7e_limits(registry):
     lim = registry.limits(registry.parse("Tr20x4-7e"))
     assert lim.major_max == 20.0
-    assert lim.major_min == pytest.approx(19.700)   # ISO 2903, Td grade 4 at P 4 = 300 µm (from memory)
+    assert lim.major_min == pytest.approx(19.700)   # ISO 2903, Td4 at P 4 = 300 µm (from memory)
     assert lim.pd_max == pytest.approx(17.905)      # ISO 2903, e es at P 4 = -95 µm (from memory)
     # Td2 grade 7, d 11.2-22.4, P 4: 90 x 4^0.4 x 15.84^0.1 x 1.25 = 258 -> R40 265 µm
     # (computed from the ISO 965-1 formula ISO 2903 uses, from memory)
@@ -83,7 +83,7 @@ def test_tr20x4_7h_limits(registry):
     lim = registry.limits(registry.parse("Tr20x4-7H"))
     assert lim.spec.kind == "internal"
     assert lim.major_min == pytest.approx(20.5) and lim.major_max is None   # D4 = d + 2ac
-    assert lim.minor_max == pytest.approx(16.375)   # ISO 2903, TD1 grade 4 at P 4 = 375 µm (from memory)
+    assert lim.minor_max == pytest.approx(16.375)   # ISO 2903, TD1 4 at P 4 = 375 µm (from memory)
     # TD2 grade 7 = 1.32 x 258 = 341 -> R40 335 µm (ISO 965-1 formula, from memory)
     assert (lim.pd_min, lim.pd_max) == (pytest.approx(18.0), pytest.approx(18.335))
 
@@ -92,7 +92,8 @@ def test_tr24x5_and_tr40x7(registry):
     a = registry.limits(registry.parse("Tr24x5-7e"))
     assert a.pd_max == pytest.approx(21.394)        # ISO 2903, e es at P 5 = -106 µm (from memory)
     assert a.major_min == pytest.approx(23.665)     # ISO 2903, Td4 at P 5 = 335 µm (from memory)
-    # Td2 grade 7, d 22.4-45, P 5: 90 x 5^0.4 x 31.75^0.1 x 1.25 = 303 -> R40 300 (formula, from memory)
+    # Td2 grade 7, d 22.4-45, P 5: 90 x 5^0.4 x 31.75^0.1 x 1.25 = 303 -> R40 300
+    # (ISO 965-1 formula as ISO 2903 uses it, from memory)
     assert a.pd_min == pytest.approx(21.094)
     b = registry.limits(registry.parse("Tr40x7-7e"))
     assert b.pd_max == pytest.approx(36.375)        # ISO 2903, e es at P 7 = -125 µm (from memory)
