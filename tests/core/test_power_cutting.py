@@ -287,3 +287,163 @@ def test_square_thread_form_check_refused_with_reason():
     assert form_tip_flat(sq) == 2.5          # common practice, no source: groove P/2
     with pytest.raises(InvalidEntry, match="square-nosed"):
         check_tool(sq, ToolTip("flat", 2.5))
+
+
+# ---- infeed and the pass plan --------------------------------------------------------------------
+
+@pytest.mark.parametrize("form, flank, modified", [
+    (TRAPEZOIDAL_30, 15.0, 14.5),     # half the 30° form angle (ISO 2904); offset 0.5° (§6)
+    (ACME_29, 14.5, 14.0),            # half the 29° form angle (ASME B1.5)
+])
+def test_flank_and_modified_at_half_the_form_angle(form, flank, modified):
+    from shopterm.cutting.infeed import infeed_method
+    from shopterm.lathe.machine import Dial, Lathe, Leadscrew
+    dial = Dial("mm", 0.02, 100, reads_diameter=False)
+    bed_lathe = Lathe("bed-zeroed", Leadscrew.from_mm(3), dial, dial, compound_zero="bed")
+    f = infeed_method("flank", form.angle_deg)
+    m = infeed_method("modified", form.angle_deg)
+    assert (f.true_angle_deg, m.true_angle_deg) == (flank, modified)
+    # published-values §6 [C]: compound travel = radial / cos(angle)
+    assert f.factor == pytest.approx(1 / math.cos(math.radians(flank)))
+    # a compound scale zeroed along the bed reads 90° − the true angle (§6 [M])
+    assert infeed_method("flank", form.angle_deg, lathe=bed_lathe).scale_reading_deg == \
+        pytest.approx(90 - flank)
+
+
+def test_square_thread_is_fed_radially_only():
+    from shopterm.cutting.infeed import infeed_method
+    assert infeed_method("radial", 0.0).factor == 1.0
+    for method in ("flank", "modified", "alternating"):
+        with pytest.raises(InvalidEntry, match="parallel flanks"):
+            infeed_method(method, 0.0)
+
+
+def test_groove_area_plan_reduces_to_the_published_law_without_a_flat():
+    from shopterm.cutting.plan import constant_area_depths, groove_area_depths
+    # published-values §6 [C]: ap 0.6, 5 passes -> 0.164, 0.300, 0.424, 0.520, 0.600; a vanishing
+    # flat leaves the area ∝ depth², the published law
+    got = groove_area_depths(0.6, 5, 1e-12, math.tan(math.radians(30)))
+    assert got == pytest.approx((0.164, 0.300, 0.424, 0.520, 0.600), abs=1e-3)
+    assert got == pytest.approx(constant_area_depths(0.6, 5), abs=1e-9)
+
+
+def test_groove_area_plan_keeps_equal_chip_areas():
+    from shopterm.cutting.plan import groove_area, groove_area_depths
+    flat, t = 1.696, math.tan(math.radians(15))
+    cums = groove_area_depths(2.75, 12, flat, t)
+    areas = [groove_area(b, flat, t) - groove_area(a, flat, t)
+             for a, b in zip((0.0,) + cums, cums)]
+    # published φ: pass 1 is 0.3 of a unit, pass 2 0.7, the rest 1 each (computed, §6)
+    unit = groove_area(2.75, flat, t) / 11
+    assert areas[0] == pytest.approx(0.3 * unit) and areas[1] == pytest.approx(0.7 * unit)
+    assert areas[2:] == pytest.approx([unit] * 10)
+    # square thread (tan 0): equal depths after the first two
+    sq = groove_area_depths(2.5, 6, 2.5, 0.0)
+    assert sq[2] - sq[1] == pytest.approx(0.5) and sq[-1] == 2.5
+    with pytest.raises(InvalidEntry, match="tip flat"):
+        groove_area_depths(2.75, 12, 0.0, t)
+
+
+@pytest.mark.parametrize("limits, lo, hi", [
+    (tr24x10_p5, 15, 40),      # the task's sane count for a Tr24x10(P5) (common practice)
+    (acme_1_5, 15, 40),        # and a 1-5 ACME
+])
+def test_power_thread_plan_has_a_sane_count(limits, lo, hi):
+    from shopterm.cutting.infeed import infeed_method
+    from shopterm.cutting.plan import DEFAULT_MAX_FIRST, make_plan
+    from shopterm.cutting.tool import tool_depth
+    lim = limits()
+    tip = standard_tip(lim)
+    total = tool_depth(lim, lim.basic_major, tip).total_radial
+    for method in ("modified", "radial", "alternating"):
+        im = infeed_method(method, lim.spec.form.angle_deg)
+        plan = make_plan(total, im, flat_bottom=tip.size, finish=0.04)
+        assert lo <= plan.count <= hi
+        assert max(p.exact_radial_cum - q for p, q in
+                   zip(plan.passes, (0.0,) + tuple(p.exact_radial_cum for p in plan.passes))) \
+            <= DEFAULT_MAX_FIRST + 1e-9
+        assert plan.flat_bottom == tip.size
+        # the V-thread law would plan the same depth in far more passes
+        assert make_plan(total, im).count > 2 * plan.count
+
+
+def test_power_plan_replans_with_its_flat():
+    from shopterm.cutting.infeed import infeed_method
+    from shopterm.cutting.plan import make_plan, replan
+    lim = tr24x5()
+    plan = make_plan(2.75, infeed_method("radial", 30.0), flat_bottom=1.696)
+    done = plan.passes[9].radial_cum
+    new = replan(plan, measured_pd=lim.basic_pd + 2 * (2.75 - done), aim_pd=lim.basic_pd,
+                 done_cum_radial=done)
+    assert new.flat_bottom == 1.696
+    assert new.passes[-1].radial_cum == pytest.approx(2.75, abs=0.02)   # one 0.02 mm division
+
+
+def test_alternating_never_cuts_past_the_final_flanks_of_a_flat_groove():
+    # computed: each pass's flat tool (flanks at 15°) puts its right flank at x + h·tan and its
+    # left at x − h·tan (extended to the surface); the groove's flanks must only move outward
+    # and end where the last pass leaves them, so nothing is cut past the final form
+    from shopterm.cutting.infeed import infeed_method
+    from shopterm.cutting.plan import make_plan
+    im = infeed_method("alternating", 30.0)
+    plan = make_plan(2.75, im, flat_bottom=1.696, dial_step=0.5)
+    t = math.tan(math.radians(15))
+    right = [p.compound_cum + 1.696 / 2 + p.radial_cum * t for p in plan.passes]
+    left = [p.compound_cum - 1.696 / 2 - p.radial_cum * t for p in plan.passes]
+    slack = plan.feed_dial.travel_per_division        # rounding of the dials, one division
+    assert max(right) <= right[-1] + slack and min(left) >= left[-1] - slack
+    # the final groove is the form's width at the surface: flat + 2·depth·tan 15°
+    assert right[-1] - left[-1] == pytest.approx(1.696 + 2 * 2.75 * t, abs=2 * slack)
+    assert {p.side for p in plan.passes} == {"left", "right"}
+
+
+# ---- multi-start ---------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("ls, teeth, lines", [
+    ("8tpi", 32, 8),
+    ("6mm", 12, 6),      # 72 mm a dial turn, 7.2 leads: no line repeats the groove
+    ("6mm", 20, 4),
+    ("6mm", 10, 5),
+])
+def test_two_start_tr24x10_dial_against_simulation(ls, teeth, lines):
+    from shopterm.lathe.machine import Leadscrew, ThreadDial
+    from shopterm.lathe.thread_dial import dial_plan
+    from test_thread_dial import simulate
+    screw = Leadscrew.from_tpi(8) if ls == "8tpi" else Leadscrew.from_mm(6)
+    lim = tr24x10_p5()
+    lead = Fraction(lim.spec.lead).limit_denominator(1000)     # 10 mm: 2 starts × 5 mm
+    assert lead == 10
+    plan = dial_plan(screw, ThreadDial(teeth, lines, ()), lead, lim.spec.starts)
+    per_line, _ = simulate(screw.pitch_exact, lead, teeth, lines, 2)
+    if plan.keep_half_nut_closed:
+        # published-values §7 [P]: a metric lead on an inch leadscrew: keep the half nut closed
+        assert all(len(seen) > 1 for seen in per_line.values())
+        assert ls == "8tpi" or teeth == 12
+        return
+    sim = {s: tuple(k for k, seen in per_line.items() if seen == {s - 1}) for s in (1, 2)}
+    assert dict(plan.start_lines) == sim and plan.lines == sim[1]
+
+
+def test_two_start_acme_on_an_inch_leadscrew_against_simulation():
+    from shopterm.lathe.machine import Leadscrew, ThreadDial
+    from shopterm.lathe.thread_dial import dial_plan
+    from test_thread_dial import simulate
+    lead = Fraction(254, 10) * Fraction(8, 10)      # 0.8 in lead, 0.4 in pitch
+    plan = dial_plan(Leadscrew.from_tpi(8), ThreadDial(32, 8, ()), lead, 2)
+    per_line, _ = simulate(Fraction(254, 80), lead, 32, 8, 2)
+    sim = {s: tuple(k for k, seen in per_line.items() if seen == {s - 1}) for s in (1, 2)}
+    assert not plan.keep_half_nut_closed and dict(plan.start_lines) == sim
+
+
+def test_indexing_a_two_start_tr24x10_moves_one_pitch():
+    from shopterm.lathe.indexing import indexing_methods
+    from shopterm.lathe.machine import Dial
+    lim = tr24x10_p5()
+    plan = indexing_methods(lim.spec.lead, lim.spec.starts,
+                            compound_dial=Dial("mm", 0.05, 100, reads_diameter=False),
+                            spindle_gear=40, faceplate_slots=4)
+    assert plan.pitch_mm == pytest.approx(5.0)       # ISO 2904 Tr24x10(P5): pitch 5, lead 10
+    by_key = {m.key: m for m in plan.methods}
+    assert by_key["compound"].amount == pytest.approx(100)    # 5 mm / 0.05 mm per division
+    assert by_key["spindle_gear"].amount == 20 and by_key["plate"].amount == 2
+    assert by_key["chuck4"].works and not by_key["chuck3"].works
