@@ -93,6 +93,7 @@ def power_limits(designation: str, fallback: Limits) -> Limits:
 _CATALOGUE = {
     "Tr24x5": lambda kind="external": tr(24, 5, kind=kind),
     "Tr20x4": lambda kind="external": tr(20, 4, kind=kind),
+    "Tr24x3": lambda kind="external": tr(24, 3, kind=kind),
     "Tr24x10(P5)": lambda kind="external": tr(24, 5, starts=2, kind=kind),
     "Tr40x7": lambda kind="external": tr(40, 7, kind=kind),
     "1.000-5 ACME": lambda kind="external": acme(1.0, 5, kind=kind),
