@@ -241,10 +241,11 @@ def choose_wire(form: ThreadForm, pitch: float, owned: Iterable[WireSize] = (),
         o = fitting[0]
         return WireChoice(o.size, o, rng, f"Using your {_wire_label(o, unit)} wires.")
     what = "None of your wire sets fits this thread" if owned else "No wire sets are configured"
+    offer = " " + NO_WIRE_OFFER if is_power_form(form) else ""
     return WireChoice(rng.best, None, rng,
                       f"{what}: figures are for the best size, {format_length(rng.best, unit, res)} "
                       f"(anything from {format_length(rng.smallest, unit, res)} to "
-                      f"{format_length(rng.largest, unit, res)} works).")
+                      f"{format_length(rng.largest, unit, res)} works).{offer}")
 
 
 # ---- power threads without a fitting wire -----------------------------------------------------

@@ -97,6 +97,7 @@ _CATALOGUE = {
     "Tr24x10(P5)": lambda kind="external": tr(24, 5, starts=2, kind=kind),
     "Tr40x7": lambda kind="external": tr(40, 7, kind=kind),
     "1.000-5 ACME": lambda kind="external": acme(1.0, 5, kind=kind),
+    "1.000-0.4P-0.8L ACME": lambda kind="external": acme(1.0, 2.5, starts=2, kind=kind),
     "0.750-6 ACME": lambda kind="external": acme(0.75, 6, kind=kind),
 }
 
@@ -106,7 +107,9 @@ def _key(spec: ThreadSpec) -> str:
 
 
 def parse(text: str):
-    return None
+    """Return the stand-in thread named exactly as its catalogue key, else None."""
+    make = _CATALOGUE.get(text.strip())
+    return make().spec if make else None
 
 
 def limits(spec: ThreadSpec) -> Limits:

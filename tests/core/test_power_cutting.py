@@ -457,10 +457,13 @@ def power_family(monkeypatch):
     pt.register(monkeypatch)
     from shopterm import standards
     from shopterm.cutting import identify as ident
-    ident._limits.cache_clear()
+    caches = (ident._limits, standards.catalogue, standards._designations)
+    for c in caches:
+        c.cache_clear()
     yield [s for f in ("iso", "unified", pt.FAMILY)
            for s in standards.family_module(f).catalogue()]
-    ident._limits.cache_clear()
+    for c in caches:
+        c.cache_clear()
 
 
 def test_gauge_angle_tells_a_trapezoidal_screw_from_metric(power_family):
@@ -533,3 +536,43 @@ def test_catalogue_offers_power_threads_once_the_families_land():
     got = identify(major=23.9, pitch=5.0, angle=30)
     assert got.candidates[0].spec.form.angle_deg == 30
     assert got.candidates[0].designation.startswith("Tr24x5")
+
+
+# ---- the calc commands ---------------------------------------------------------------------------
+
+def _calc(capsys, *argv):
+    import json
+    from shopterm.cli import main
+    code = main(["calc", *argv, "--json"])
+    out = capsys.readouterr()
+    assert code == 0, out.err
+    return json.loads(out.out)
+
+
+def test_calc_passes_for_a_two_start_trapezoidal(power_family, capsys):
+    data = _calc(capsys, "passes", "Tr24x10(P5)", "--od", "24", "--method", "alternating")
+    tool = data["power_tool"]
+    assert tool["flat"] == pytest.approx(1.696, abs=1e-3)     # ISO 2904 root width, computed
+    assert tool["helix_minor_deg"] == pytest.approx(9.763, abs=1e-3)   # computed above
+    assert 15 <= len(data["passes"]) <= 40
+    assert data["total_radial"] == pytest.approx(2.75, abs=1e-3)   # ISO 2904 h3 = 0.5P + ac
+
+
+def test_calc_passes_refuses_a_too_steep_lead(power_family, capsys):
+    from shopterm.cli import main
+    code = main(["calc", "passes", "1.000-0.4P-0.8L ACME", "--od", "1in"])
+    err = capsys.readouterr().err
+    assert code != 0 and "too steep" in err
+
+
+def test_calc_wires_shows_simple_and_caliper_for_acme(power_family, capsys):
+    data = _calc(capsys, "wires", "1.000-5 ACME")
+    ow = data["over_wires"]
+    assert ow["at_pd_max_simple"] < ow["at_pd_max"]      # §5 [P]: simple reads low over wires
+    assert data["caliper"]["normal_thickness_at_pd_max"] > 0
+    assert data["wire_min"] == pytest.approx(0.4873 * 0.2, abs=1e-4)  # in: 0.487P (from memory)
+
+
+def test_calc_identify_offers_the_power_thread(power_family, capsys):
+    data = _calc(capsys, "identify", "--major", "23.9", "--pitch", "5", "--angle", "30")
+    assert data["candidates"][0]["designation"] == "Tr24x5"
