@@ -24,6 +24,7 @@ from dataclasses import dataclass
 from shopterm.errors import InvalidEntry
 from shopterm.lathe.machine import ToolTip
 from shopterm.standards.spec import Limits
+from shopterm.units import Unit, format_length
 
 #: Below this the core treats two surfaces as touching, not overlapping [mm].
 TOUCH = 1e-6
@@ -242,6 +243,14 @@ def _nominal_root_radius(limits: Limits) -> float:
     return form.height / 6 * p   # ISO 68-1 nominal external root radius H/6
 
 
+def _radial_clearance(limits: Limits) -> float:
+    """Return a power thread's crest clearance on radius [mm]: ISO 2904 ac is given on radius
+    (D4 = d + 2ac), ASME B1.5's major and minor clearances on diameter."""
+    if not limits.clearance:
+        return 0.0
+    return limits.clearance if limits.spec.form.angle_deg == 30 else limits.clearance / 2
+
+
 def _nominal_root_tip(limits: Limits) -> ToolTip:
     """Return the tip of the mating external thread's nominal root (a flat for power forms)."""
     if _is_power(limits):
@@ -278,6 +287,8 @@ def internal_surface(limits: Limits, pd: float, crest_diameter: float,
     form, a, p = spec.form, spec.form.half_angle_rad, spec.pitch
     if tip is None:
         clip, radius = limits.basic_major / 2, form.crest_radius * p
+        if spec.is_external and _is_power(limits):
+            clip += _radial_clearance(limits)     # the nut's root clears the screw's crest
     else:
         clip, radius = _tool_end(tip, p, a, pd / 2, outward=True)
     return Surface(p, a, pd / 2, outer_clip=clip, outer_radius=radius,
@@ -494,11 +505,12 @@ def check_tool(limits: Limits, tip: ToolTip, aim_pd: float | None = None,
         fails.append(f"The {where} fouls {mate_text} by {interference:.3f} mm (on radius) "
                      f"before the thread is cut.{fix}")
     else:
-        goods.append(f"The root clears {mate_text} by {max(-worst, 0.0):.3f} mm.")
+        goods.append(f"The root clears {mate_text} by {max(-worst, 0.0) + 0.0:.3f} mm.")
     picture = _picture(ext, nut, "internal" if internal else "external", aim / 2)
     messages = tuple(["Fails: " + m for m in fails] + ["Warning: " + m for m in warns]
                      + ["OK: " + m for m in goods])
-    return ToolCheck(not fails, messages, interference, -worst, rmin, rmax, largest, picture)
+    clearance = -worst if abs(worst) > TOUCH else 0.0
+    return ToolCheck(not fails, messages, interference, clearance, rmin, rmax, largest, picture)
 
 
 def _internal_basic_minor(limits: Limits) -> float:
@@ -599,16 +611,19 @@ class PowerTool:
     leading_side: str               # 'headstock' or 'tailstock'
     notes: tuple[str, ...] = ()
 
-    def lines(self) -> tuple[str, ...]:
-        """Return the side clearances as short lines (≤ 38 columns) to set beside a picture."""
+    def lines(self, unit: Unit = "mm") -> tuple[str, ...]:
+        """Return the side clearances as short lines (≤ 38 columns) to set beside a picture,
+        the flat in ``unit``."""
         toward = "chuck" if self.leading_side == "headstock" else "tailstock"
+        res = 0.0001 if unit == "in" else 0.001
         return (f"Helix: minor {self.helix_minor_deg:.2f}°",
                 f"       major {self.helix_major_deg:.2f}°",
                 f"Leading side (to {toward}):",
                 f"  clearance {self.leading_deg:.1f}°",
                 "Trailing side:",
                 f"  clearance {self.trailing_deg:.1f}°",
-                f"Flat {self.tip.size:.3f} mm (std {self.standard_flat:.3f})")
+                f"Flat {format_length(self.tip.size, unit, res)}",
+                f"  standard {format_length(self.standard_flat, unit, res)}")
 
 
 def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | None = None,

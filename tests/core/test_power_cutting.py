@@ -576,3 +576,13 @@ def test_calc_wires_shows_simple_and_caliper_for_acme(power_family, capsys):
 def test_calc_identify_offers_the_power_thread(power_family, capsys):
     data = _calc(capsys, "identify", "--major", "23.9", "--pitch", "5", "--angle", "30")
     assert data["candidates"][0]["designation"] == "Tr24x5"
+
+
+def test_mating_nut_root_clears_the_crest_by_ac():
+    # ISO 2904: the nut's root is at D4 = d + 2ac, so a screw turned to d touches the nut only
+    # on its flanks: the least gap is the flank gap on radius, (D2 − d2 aimed)/2 (computed);
+    # ISO 2903 7e for P 5, from memory: es −118 µm, Td2 335 µm
+    lim = pt.tr(24, 5, es_d2=-0.118, td2=0.335)
+    check = check_tool(lim, standard_tip(lim), turned_diameter=24.0)
+    assert check.ok
+    assert check.clearance == pytest.approx((21.5 - lim.pd_mid) / 2, abs=1e-6)
