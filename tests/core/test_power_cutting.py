@@ -586,3 +586,37 @@ def test_mating_nut_root_clears_the_crest_by_ac():
     check = check_tool(lim, standard_tip(lim), turned_diameter=24.0)
     assert check.ok
     assert check.clearance == pytest.approx((21.5 - lim.pd_mid) / 2, abs=1e-6)
+
+
+# ---- stub Acme (form built here until forms.py has STUB_ACME_29) ---------------------------------
+
+_H29 = 0.5 / math.tan(math.radians(14.5))    # sharp-V height of a 29° form, computed
+#: ASME B1.8 stub Acme basic height 0.3p: equal flats at crest and root of the basic form
+STUB = ThreadForm("stub-test", "Stub Acme 29°", 29.0, _H29, (_H29 - 0.3) / 2, (_H29 - 0.3) / 2)
+
+
+def test_stub_acme_flats_and_wires():
+    # ASME B1.8 basic crest flat 0.4224p (from memory) = 2·crest_trunc·tan 14.5° (computed)
+    from shopterm.cutting.identify import crest_flat_of
+    assert crest_flat_of(STUB, 1.0) == pytest.approx(0.4224, abs=1e-4)
+    k, full = w.wire_constants(STUB), w.wire_constants(ACME_29)
+    assert k.best == pytest.approx(0.516450, abs=1e-6)    # §5: best wire depends on angle only
+    # computed: the crest stands 0.15P above the pitch line, so the wire's top must clear
+    # 0.15P + H/2 above the root apex: W > 2(H/2 + 0.15)/(1 + cosec 14.5°)
+    assert k.smallest == pytest.approx(2 * (_H29 / 2 + 0.15) / (1 + 1 / math.sin(
+        math.radians(14.5))), abs=1e-9)
+    assert k.largest < full.largest and k.smallest < k.best < k.largest
+
+
+def test_stub_acme_tool_takes_the_form_flat():
+    lim = pt.acme(1.0, 5)
+    stub = dataclasses.replace(lim, spec=lim.spec.with_(form=STUB), tip_flat=None,
+                               basic_minor=lim.basic_major - 0.6 * lim.spec.pitch,
+                               minor_max=lim.basic_major - 0.6 * lim.spec.pitch,
+                               basic_pd=lim.basic_major - 0.3 * lim.spec.pitch,
+                               pd_max=lim.basic_major - 0.3 * lim.spec.pitch,
+                               pd_min=lim.basic_major - 0.3 * lim.spec.pitch)
+    tool = power_tool(stub)
+    # ASME B1.8 basic: the root flat of the basic form is 0.4224p (from memory), d = D − 0.6p
+    assert tool.standard_flat / IN == pytest.approx(0.4224 * 0.2, abs=1e-5)
+    assert tool.groove_at_root == pytest.approx(tool.standard_flat, abs=1e-9)
