@@ -85,7 +85,7 @@ PD_OVER = 0.02
 #: Two wire sizes on the right form give the same pitch diameter within this [mm].
 #: A power thread's crests (leadscrews, vice and press screws) wear more: allowance below the
 #: major minimum per unit of pitch. Shop judgement, no source.
-LEADSCREW_WEAR_PER_P = 0.25
+LEADSCREW_WEAR_PER_P = 0.15
 #: How far a crest flat read with a loupe and scale or calipers may stray, and its share of the
 #: pitch (wear widens or narrows it). Shop judgement, no source.
 CREST_FLAT_BASE = 0.05
@@ -322,7 +322,7 @@ class TellApart:
     """A measurement that separates two candidates, with what each would give."""
 
     between: tuple[str, str]
-    measure: str    # "pitch", "gauge", "crest flat", "starts", "wires", "two wires", "diameter"
+    measure: str    # pitch, gauge, crest flat, depth, starts, wires, two wires, diameter
     how: str
     expected: tuple[Expected, ...]
 
@@ -708,6 +708,28 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
         if m.kind == "external" and abs(sa.pitch - sb.pitch) < 0.02 * sa.pitch \
                 and sa.form.angle_deg > 0 and sb.form.angle_deg > 0:
             out.extend(_wire_tell(a, b, m))
+    same_shape = _same_proportions(sa.form, sb.form)
+    if sa.form.angle_deg == sb.form.angle_deg and not same_shape:
+        # same angle, other proportions (Acme and stub Acme): the depth tells them apart
+        la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
+        q = "root (minor) diameter" if m.kind == "external" else "root (major) diameter"
+
+        def root_band(lim: Limits) -> tuple[float, float]:
+            if m.kind == "external":
+                lo, hi = lim.minor_min, lim.minor_max
+                basic = lim.basic_minor
+            else:
+                lo, hi = lim.major_min, lim.major_max
+                basic = lim.basic_major
+            return (lo if lo is not None else basic), (hi if hi is not None else basic)
+
+        ra, rb = root_band(la), root_band(lb)
+        out.append(TellApart(
+            pair, "depth",
+            f"measure the {q} with pointed anvils or a caliper's depth blade: "
+            f"{a.designation} {_mm(ra[0])}–{_mm(ra[1])} mm, {b.designation} "
+            f"{_mm(rb[0])}–{_mm(rb[1])} mm",
+            (Expected(a.designation, q, *ra), Expected(b.designation, q, *rb))))
     if sa.starts != sb.starts:
         out.append(TellApart(
             pair, "starts",
@@ -717,8 +739,7 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"{sb.starts}, lead {_mm(sb.lead)} mm",
             (Expected(a.designation, "lead", sa.lead, sa.lead),
              Expected(b.designation, "lead", sb.lead, sb.lead))))
-    if abs(sa.pitch - sb.pitch) <= 1e-9 and sa.form.angle_deg == sb.form.angle_deg \
-            and sa.starts == sb.starts:
+    if abs(sa.pitch - sb.pitch) <= 1e-9 and same_shape and sa.starts == sb.starts:
         la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
         if m.kind == "external":
             ra, rb = (la.major_min, la.major_max), (lb.major_min, lb.major_max)
@@ -737,6 +758,13 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"{b.designation} {_mm(rb[0])}–{_mm(rb[1])} mm",
             (Expected(a.designation, q, ra[0], ra[1]), Expected(b.designation, q, rb[0], rb[1]))))
     return out
+
+
+def _same_proportions(fa: ThreadForm, fb: ThreadForm) -> bool:
+    """Return whether two forms have the same profile (ISO and Unified 60° do)."""
+    pa = (fa.angle_deg, fa.height, fa.crest_trunc, fa.root_trunc, fa.crest_radius, fa.root_radius)
+    pb = (fb.angle_deg, fb.height, fb.crest_trunc, fb.root_trunc, fb.crest_radius, fb.root_radius)
+    return all(abs(x - y) < 1e-9 for x, y in zip(pa, pb))
 
 
 def _pitch_name(spec: ThreadSpec) -> str:

@@ -550,6 +550,10 @@ def _largest_clear_radius(limits: Limits, aim: float, ext: Surface, nut: Surface
 # Power threads: the flat-nosed tool, its side clearances and the helix
 
 
+#: A flat this much wider than the groove at the root is still taken as fitting [mm] (a
+#: 0.0001 in entry step, and what a ground flat is held to). Our own tolerance, no source.
+FLAT_TOLERANCE = 0.005
+
 #: Side clearance wanted beyond the helix angle on each flank [deg]. Common practice, no source
 #: (texts give 2° to 5°; a larger one weakens the edge).
 WORKING_CLEARANCE_DEG = 3.0
@@ -639,7 +643,8 @@ def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | No
     is wider than the groove at the root diameter (fed to the root it would cut the flanks
     back); the leading flank needs more clearance than the tool has (lead too steep).
     Side clearance: leading = helix at the minor diameter + working clearance; trailing =
-    working clearance − helix at the major diameter.
+    working clearance − helix at the major diameter (the diameters the flanks work between: a
+    screw's root d3 and crest, a nut's bore and root D4).
     References: side clearance rule as given in machine-shop texts (Machinery's Handbook,
     "Thread cutting tools: side clearance"), from memory; ISO 2904 / ASME B1.5 root flats.
     """
@@ -664,7 +669,7 @@ def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | No
         root = limits.major_min if limits.major_min is not None else limits.basic_major
         groove = p / 2 - (root - aim) * math.tan(a)
     where = "d3" if spec.is_external else "D4"
-    if tip.size > groove + 1e-4:
+    if tip.size > groove + FLAT_TOLERANCE:
         raise InvalidEntry(
             f"A {tip.size:.3f} mm flat is wider than the groove at the root ({groove:.3f} mm at "
             f"{where} {root:.3f} mm for a pitch diameter of {aim:.3f} mm): fed to the root it "
@@ -672,8 +677,14 @@ def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | No
             f"{standard:.3f} mm (at most {groove:.3f} mm).")
     if tip.size <= 0:
         raise InvalidEntry(f"A power-thread tool needs a flat tip: grind it to {standard:.3f} mm.")
-    major = limits.basic_major
-    minor = limits.basic_minor
+    # the smallest and largest diameters the tool's flanks work at: a screw from its root to
+    # its crest, a nut from its crest (the bore) to its root
+    if spec.is_external:
+        minor = root
+        major = limits.major_max if limits.major_max is not None else limits.basic_major
+    else:
+        minor = limits.minor_min if limits.minor_min is not None else limits.basic_minor
+        major = root
     h_minor = helix_angle_deg(spec.lead, minor)
     h_major = helix_angle_deg(spec.lead, major)
     leading = h_minor + working_clearance_deg
@@ -687,7 +698,7 @@ def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | No
             f"{max_side_clearance_deg:g}°. Grind the leading side to {leading:.1f}° or set the "
             "tool in a holder tilted to the helix angle, and set side_clearance in [tool].")
     notes: list[str] = []
-    if tip.size < standard - 1e-4:
+    if tip.size < standard - FLAT_TOLERANCE:
         notes.append(f"The flat {tip.size:.3f} mm is narrower than the standard "
                      f"{standard:.3f} mm: the root is cut deeper than d3, weakening the screw.")
     if trailing < 0:

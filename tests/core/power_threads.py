@@ -13,8 +13,10 @@ registry: ``register(monkeypatch)``.
 
 from __future__ import annotations
 
+import math
+
 from shopterm.errors import UnknownThread
-from shopterm.standards.forms import ACME_29, TRAPEZOIDAL_30
+from shopterm.standards.forms import ACME_29, TRAPEZOIDAL_30, ThreadForm
 from shopterm.standards.spec import Limits, ThreadSpec
 
 INCH = 25.4          # ISO 31-1: 1 in = 25.4 mm exactly
@@ -36,7 +38,6 @@ def tr(d: float, pitch: float, starts: int = 1, kind: str = "external",
     D4 = d + 2ac; root width of the external thread at d3 = 0.366P − 0.536ac (computed from
     the 30° flanks: the groove is P/2 wide at d2 and narrows by 2·tan 15° per unit depth).
     """
-    import math
     ac = tr_ac(pitch)
     d2 = d - 0.5 * pitch
     d3 = d - 2 * (0.5 * pitch + ac)
@@ -54,27 +55,37 @@ def tr(d: float, pitch: float, starts: int = 1, kind: str = "external",
                   0.5 * pitch + ac, clearance=ac, tip_flat=nut_flat)
 
 
+_H29 = 0.5 / math.tan(math.radians(14.5))
+#: ASME B1.8 stub Acme basic profile (29°, basic height 0.3p), for the tests only.
+STUB_29 = ThreadForm("stub-handmade", "Stub Acme 29°", 29.0, _H29, (_H29 - 0.3) / 2,
+                     (_H29 - 0.3) / 2)
+
+
 def acme(d_in: float, tpi: float, starts: int = 1, kind: str = "external",
-         allowance_in: float = 0.0, td2_in: float = 0.0, tol_class: str | None = None) -> Limits:
-    """Return the limits of a general-purpose Acme thread from the ASME B1.5 basic form.
+         allowance_in: float = 0.0, td2_in: float = 0.0, tol_class: str | None = None,
+         stub: bool = False) -> Limits:
+    """Return the limits of a general-purpose (or stub) Acme thread from the basic form.
 
     d_in [in]; tpi (threads per inch of the pitch); allowance_in, td2_in [in] on the PD.
     ASME B1.5: basic depth 0.5p, basic PD = D − 0.5p; minor diameter clearance (on diameter)
     0.020 in for 10 tpi and coarser, 0.010 in finer (from memory); flat at the root of the
-    screw 0.3707p − 0.259 × clearance.
+    screw 0.3707p − 0.259 × clearance. ASME B1.8 stub: depth 0.3p, flat 0.4224p − 0.259 ×
+    clearance (from memory).
     """
     p = 1 / tpi
+    h = 0.3 if stub else 0.5
     clear = 0.020 if tpi <= 10 else 0.010
-    pd = d_in - 0.5 * p
-    minor = d_in - p - clear
-    flat = 0.3707 * p - 0.259 * clear
+    pd = d_in - h * p
+    minor = d_in - 2 * h * p - clear
+    flat = (0.4224 if stub else 0.3707) * p - 0.259 * clear
     size = f"{d_in:.3f}" + (f"-{p:.4g}P-{starts * p:.4g}L" if starts > 1 else f"-{tpi:g}")
-    spec = ThreadSpec(FAMILY, "ACME", size, d_in * INCH, p * INCH, ACME_29, kind=kind,
-                      tol_class=tol_class, tpi=tpi, starts=starts, native_unit="in")
+    spec = ThreadSpec(FAMILY, "STUB ACME" if stub else "ACME", size, d_in * INCH, p * INCH,
+                      STUB_29 if stub else ACME_29, kind=kind, tol_class=tol_class, tpi=tpi,
+                      starts=starts, native_unit="in")
     pd_max = (pd - allowance_in) * INCH
     return Limits(spec, d_in * INCH, pd * INCH, minor * INCH, d_in * INCH, (d_in - 0.05 * p) * INCH,
                   pd_max, pd_max - td2_in * INCH, minor * INCH, (minor - 0.05 * p) * INCH,
-                  (0.5 * p + clear / 2) * INCH, clearance=clear * INCH, tip_flat=flat * INCH)
+                  (h * p + clear / 2) * INCH, clearance=clear * INCH, tip_flat=flat * INCH)
 
 
 def power_limits(designation: str, fallback: Limits) -> Limits:
@@ -97,13 +108,14 @@ _CATALOGUE = {
     "Tr24x10(P5)": lambda kind="external": tr(24, 5, starts=2, kind=kind),
     "Tr40x7": lambda kind="external": tr(40, 7, kind=kind),
     "1.000-5 ACME": lambda kind="external": acme(1.0, 5, kind=kind),
+    "1.000-5 STUB ACME": lambda kind="external": acme(1.0, 5, kind=kind, stub=True),
     "1.000-0.4P-0.8L ACME": lambda kind="external": acme(1.0, 2.5, starts=2, kind=kind),
     "0.750-6 ACME": lambda kind="external": acme(0.75, 6, kind=kind),
 }
 
 
 def _key(spec: ThreadSpec) -> str:
-    return spec.size + (" ACME" if spec.series == "ACME" else "")
+    return spec.size + (f" {spec.series}" if "ACME" in spec.series else "")
 
 
 def parse(text: str):

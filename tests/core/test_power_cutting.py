@@ -222,10 +222,13 @@ def test_flat_from_the_form_when_the_standard_gives_none():
 def test_helix_and_side_clearance_of_a_two_start_tr24x10():
     lim = tr24x10_p5()
     tool = power_tool(lim)
-    # computed: atan(L / (π d)), L = 10, d3 = 18.5, d = 24 (ISO 2904: d3 = d − P − 2ac)
-    assert tool.helix_minor_deg == pytest.approx(math.degrees(math.atan(10 / (math.pi * 18.5))))
+    # computed: atan(L / (π d)), L = 10, at the screw's root (d3 max) and crest (d max);
+    # ISO 2904: d3 = d − P − 2ac = 18.5 basic, d = 24
+    d3, d = lim.minor_max, lim.major_max
+    assert 18.0 < d3 <= 18.5 and d == 24
+    assert tool.helix_minor_deg == pytest.approx(math.degrees(math.atan(10 / (math.pi * d3))))
     assert tool.helix_major_deg == pytest.approx(math.degrees(math.atan(10 / (math.pi * 24))))
-    assert tool.helix_minor_deg == pytest.approx(9.763, abs=1e-3)   # computed
+    assert tool.helix_minor_deg == pytest.approx(9.76, abs=0.1)   # computed at d3 = 18.5
     # leading = helix at minor + working clearance; trailing = working − helix at major
     # (Machinery's Handbook rule, from memory)
     assert tool.leading_deg == pytest.approx(tool.helix_minor_deg + WORKING_CLEARANCE_DEG)
@@ -239,8 +242,10 @@ def test_helix_and_side_clearance_of_a_two_start_tr24x10():
 
 def test_lead_too_steep_for_the_tool_is_refused():
     lim = acme_1_04p_08l()
-    # computed: minor 1 − 0.4 − 0.02 = 0.58 in, helix atan(0.8 / (π 0.58)) = 23.7°
-    assert helix_angle_deg(lim.spec.lead, lim.basic_minor) == pytest.approx(23.71, abs=0.01)
+    # computed: the screw's root, ASME B1.5 minor max D − p − c = 1 − 0.4 − 0.02 = 0.58 in
+    # (c = 0.020 in, from memory), helix atan(0.8 / (π 0.58)) = 23.71°
+    assert lim.minor_max / IN == pytest.approx(0.58, abs=1e-9)
+    assert helix_angle_deg(lim.spec.lead, lim.minor_max) == pytest.approx(23.71, abs=0.01)
     with pytest.raises(InvalidEntry, match="too steep") as info:
         power_tool(lim, max_side_clearance_deg=15)
     assert "26.7°" in str(info.value) and "tilted to the helix" in str(info.value)
@@ -514,6 +519,19 @@ def test_tell_apart_one_start_from_two(power_family):
     assert {e.low for e in tells[0].expected} == {5.0, 10.0}
 
 
+def test_acme_and_stub_acme_told_apart_by_the_depth(power_family):
+    from shopterm.cutting.identify import identify
+    # same major, pitch and angle (ASME B1.5 / B1.8): basic depth 0.5p against 0.3p, so the
+    # screw's minor differs by 0.4p = 0.08 in (computed)
+    got = identify(major=0.99 * IN, tpi=5, angle=29, threads=power_family)
+    tells = [t for t in got.to_tell_apart if t.measure == "depth"]
+    assert got.ambiguous and tells
+    lows = sorted(e.high for e in tells[0].expected)
+    assert (lows[1] - lows[0]) / IN == pytest.approx(0.4 * 0.2, abs=1e-9)
+    assert "diameter" not in {t.measure for t in got.to_tell_apart
+                              if set(t.between) == {"1.000-5 ACME", "1.000-5 STUB ACME"}}
+
+
 def test_identify_refusals_for_power_measurements():
     from shopterm.cutting.identify import measured
     with pytest.raises(InvalidEntry, match="crest flat"):
@@ -553,9 +571,13 @@ def test_calc_passes_for_a_two_start_trapezoidal(power_family, capsys):
     data = _calc(capsys, "passes", "Tr24x10(P5)", "--od", "24", "--method", "alternating")
     tool = data["power_tool"]
     assert tool["flat"] == pytest.approx(1.696, abs=1e-3)     # ISO 2904 root width, computed
-    assert tool["helix_minor_deg"] == pytest.approx(9.763, abs=1e-3)   # computed above
+    lim = tr24x10_p5()       # computed: atan(10 / (π d3)) at the root (d3 max)
+    assert tool["helix_minor_deg"] == pytest.approx(
+        math.degrees(math.atan(10 / (math.pi * lim.minor_max))), abs=1e-3)
     assert 15 <= len(data["passes"]) <= 40
-    assert data["total_radial"] == pytest.approx(2.75, abs=1e-3)   # ISO 2904 h3 = 0.5P + ac
+    # computed: from the 24 mm blank to the aim PD (mid band), then the standard flat's tip lies
+    # (d2 − d3)/2 = 0.25P + ac = 1.5 beyond the pitch line (ISO 2904); 2.75 = h3 at basic size
+    assert data["total_radial"] == pytest.approx((24 - lim.pd_mid) / 2 + 1.5, abs=1e-3)
 
 
 def test_calc_passes_refuses_a_too_steep_lead(power_family, capsys):

@@ -85,7 +85,9 @@ async def test_power_thread_side_clearances_beside_the_picture(make_app, power_f
         app.thread_chosen(spec)
         app.goto("toolform")
         await pilot.pause()
-        await pilot.press("2")                  # the config's tip is a radius: make it a flat
+        # the config's tip is a radius: refused with the reason and the keys to change it
+        assert "flat root" in screen_text(app) and "Press 2 for a flat tip" in screen_text(app)
+        await pilot.press("2")
         # 0.0667 in = 1.694 mm (the display is in inches), just under the ISO 2904 root width
         await pilot.press("1", "0", "full_stop", "0", "6", "6", "7", "enter")
         text = screen_text(app)

@@ -107,8 +107,10 @@ class ToolFormScreen(ShopScreen):
             side.display = False
             self.query_one("#tf-picture", Static).update("")
             self.query_one("#tf-numbers", Static).update("")
-            self.query_one("#tf-verdicts", Static).update(
-                Text(f"{exc} Press 1 to enter another tip size.", style="bold"))
+            hint = ("Press 2 for a flat tip, then 1 for its width."
+                    if is_power_form(app.spec.form) and tip.kind == "radius"
+                    else "Press 1 to enter another tip size.")
+            self.query_one("#tf-verdicts", Static).update(Text(f"{exc} {hint}", style="bold"))
             return
         self.check = check
         width = max(20, (self.app.size.width or 80) - 2)
