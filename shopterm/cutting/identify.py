@@ -687,24 +687,21 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"measure over {n} pitches ({n + 1} crests, first to last): {a.designation} "
             f"{la:.2f} mm, {b.designation} {lb:.2f} mm; or try a "
             f"{_pitch_name(sa)} and a {_pitch_name(sb)} gauge leaf",
-            (Expected(a.designation, f"length of {n} pitches", la, la),
-             Expected(b.designation, f"length of {n} pitches", lb, lb))))
+            _exact(a, b, f"length of {n} pitches", la, lb)))
     if sa.form.angle_deg != sb.form.angle_deg:
         ga, gb = sa.form.angle_deg, sb.form.angle_deg
         out.append(TellApart(
             pair, "gauge",
             f"hold a {ga:g}° and a {gb:g}° gauge leaf (or centre gauge) in the thread against "
             f"the light: {a.designation} is {ga:g}°, {b.designation} {gb:g}°",
-            (Expected(a.designation, "included angle [deg]", ga, ga),
-             Expected(b.designation, "included angle [deg]", gb, gb))))
+            _exact(a, b, "included angle [deg]", ga, gb)))
         fa, fb = crest_flat_of(sa.form, sa.pitch), crest_flat_of(sb.form, sb.pitch)
         if m.kind == "external" and abs(fa - fb) > 0.1 * max(sa.pitch, sb.pitch):
             out.append(TellApart(
                 pair, "crest flat",
                 f"look at a crest under a loupe and measure its flat: {a.designation} "
                 f"{_mm(fa)} mm, {b.designation} {_mm(fb)} mm",
-                (Expected(a.designation, "crest flat", fa, fa),
-                 Expected(b.designation, "crest flat", fb, fb))))
+                _exact(a, b, "crest flat", fa, fb)))
         if m.kind == "external" and abs(sa.pitch - sb.pitch) < 0.02 * sa.pitch \
                 and sa.form.angle_deg > 0 and sb.form.angle_deg > 0:
             out.extend(_wire_tell(a, b, m))
@@ -737,8 +734,7 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"work and measure how far one turn carries a nut: {a.designation} {sa.starts} "
             f"start{'s' if sa.starts > 1 else ''}, lead {_mm(sa.lead)} mm; {b.designation} "
             f"{sb.starts}, lead {_mm(sb.lead)} mm",
-            (Expected(a.designation, "lead", sa.lead, sa.lead),
-             Expected(b.designation, "lead", sb.lead, sb.lead))))
+            _exact(a, b, "lead", sa.lead, sb.lead)))
     if abs(sa.pitch - sb.pitch) <= 1e-9 and same_shape and sa.starts == sb.starts:
         la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
         if m.kind == "external":
@@ -758,6 +754,12 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"{b.designation} {_mm(rb[0])}–{_mm(rb[1])} mm",
             (Expected(a.designation, q, ra[0], ra[1]), Expected(b.designation, q, rb[0], rb[1]))))
     return out
+
+
+def _exact(a: Candidate, b: Candidate, quantity: str, va: float,
+           vb: float) -> tuple[Expected, Expected]:
+    """Return what one exact measurement reads on each of two candidates."""
+    return (Expected(a.designation, quantity, va, va), Expected(b.designation, quantity, vb, vb))
 
 
 def _same_proportions(fa: ThreadForm, fb: ThreadForm) -> bool:

@@ -47,16 +47,7 @@ def acme_1_04p_08l():
 
 # ---- wires ---------------------------------------------------------------------------------------
 
-@pytest.mark.parametrize("form, c_w, c_p, best", [
-    (ACME_29, 4.993929, 1.933357, 0.516450),         # published-values §5 [C], 29°
-    (TRAPEZOIDAL_30, 4.863703, 1.866025, 0.517638),  # published-values §5 [C], 30°; best
-                                                     # computed from P/(2 cos 15°)
-])
-def test_power_wire_constants(form, c_w, c_p, best):
-    k = w.wire_constants(form)
-    assert k.c_w == pytest.approx(c_w, abs=1e-6)
-    assert k.c_p == pytest.approx(c_p, abs=1e-6)
-    assert k.best == pytest.approx(best, abs=1e-6)
+# the 29° and 30° three-wire constants are checked in test_wires.test_published_constants
 
 
 def test_acme_wire_range_touches_flanks_and_stands_proud():
