@@ -25,6 +25,7 @@ import math
 from dataclasses import dataclass
 from typing import Literal
 
+from shopterm.cutting.wires import POWER_ANGLES
 from shopterm.errors import InvalidEntry
 
 Method = Literal["radial", "flank", "modified", "alternating"]
@@ -145,7 +146,7 @@ def infeed_method(method: str, form_angle_deg: float, *, angle_deg: float | None
                  "Each pass: compound to the setting shown, cut, withdraw the cross-slide, run "
                  "back, return the cross-slide to its mark.")
         feeds, factor, shift = "compound", compound_factor(true), 0.0
-    if form_angle_deg <= 30 and method in ("radial", "alternating"):
+    if form_angle_deg in POWER_ANGLES and method in ("radial", "alternating"):
         # common practice, no source: a power thread's wide flat takes a large chip radially.
         notes.append("Power thread: the flat-nosed tool cuts the bottom and both flanks at "
                      "once; keep the passes light, use plenty of cutting oil, and finish with "

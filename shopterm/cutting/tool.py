@@ -254,8 +254,7 @@ def _radial_clearance(limits: Limits) -> float:
 def _nominal_root_tip(limits: Limits) -> ToolTip:
     """Return the tip of the mating external thread's nominal root (a flat for power forms)."""
     if _is_power(limits):
-        form, p = limits.spec.form, limits.spec.pitch
-        return ToolTip("flat", 2 * form.root_trunc * p * math.tan(form.half_angle_rad))
+        return ToolTip("flat", _basic_root_flat(limits))
     return ToolTip("radius", _nominal_root_radius(limits))
 
 
@@ -504,12 +503,12 @@ def check_tool(limits: Limits, tip: ToolTip, aim_pd: float | None = None,
         where = "root the tip cuts in the nut" if internal else "root the tip leaves"
         fails.append(f"The {where} fouls {mate_text} by {interference:.3f} mm (on radius) "
                      f"before the thread is cut.{fix}")
-    else:
-        goods.append(f"The root clears {mate_text} by {max(-worst, 0.0) + 0.0:.3f} mm.")
+    clearance = -worst if abs(worst) > TOUCH else 0.0     # touching: 0, not −0
+    if interference <= 0:
+        goods.append(f"The root clears {mate_text} by {max(clearance, 0.0):.3f} mm.")
     picture = _picture(ext, nut, "internal" if internal else "external", aim / 2)
     messages = tuple(["Fails: " + m for m in fails] + ["Warning: " + m for m in warns]
                      + ["OK: " + m for m in goods])
-    clearance = -worst if abs(worst) > TOUCH else 0.0
     return ToolCheck(not fails, messages, interference, clearance, rmin, rmax, largest, picture)
 
 
@@ -572,8 +571,11 @@ def form_tip_flat(limits: Limits) -> float:
     (0.366P for 30°, 0.3707P for 29°), and P/2 for a square thread.
     References: ISO 2904; ASME B1.5; square thread: common practice, no source.
     """
-    if limits.tip_flat is not None:
-        return limits.tip_flat
+    return limits.tip_flat if limits.tip_flat is not None else _basic_root_flat(limits)
+
+
+def _basic_root_flat(limits: Limits) -> float:
+    """Return the basic form's flat at the root [mm]: 2·root_trunc·P·tan a, P/2 when square."""
     form, p = limits.spec.form, limits.spec.pitch
     if form.angle_deg <= 0:
         return p / 2
@@ -700,7 +702,8 @@ def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | No
     notes: list[str] = []
     if tip.size < standard - FLAT_TOLERANCE:
         notes.append(f"The flat {tip.size:.3f} mm is narrower than the standard "
-                     f"{standard:.3f} mm: the root is cut deeper than d3, weakening the screw.")
+                     f"{standard:.3f} mm: the root is cut deeper than the standard's "
+                     f"({where}), leaving the thread weaker.")
     if trailing < 0:
         notes.append(f"The helix leans the trailing flank away from the tool: that side may be "
                      f"ground up to {-trailing:.1f}° past square and still clear.")
