@@ -590,8 +590,8 @@ def identify(*, major: float | None = None, minor: float | None = None,
     """Return the catalogue threads ranked against the measurements, and how to tell them apart.
 
     Parameters as ``measured`` (major, minor, length, crest_flat [mm]; pitch [mm]; tpi [1/in];
-    angle [deg]; wires: (wire [mm], reading [mm]) pairs); limit: most candidates listed; threads: the threads
-    to rank (default: the whole catalogue).
+    angle [deg]; wires: (wire [mm], reading [mm]) pairs); limit: most candidates listed;
+    threads: the threads to rank (default: the whole catalogue).
     References: this module's docstring; limits from the family modules.
     """
     m = measured(major=major, minor=minor, pitch=pitch, tpi=tpi, count=count, length=length,
