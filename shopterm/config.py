@@ -455,7 +455,7 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     resolution = r.length_mm(("micrometer",), micro, "resolution",
                              what="micrometer resolution", example='"0.001 mm"')
 
-    tool = _tool(r, r.table((), data, "tool"))
+    tool, side_clearance = _tool(r, r.table((), data, "tool"))
 
     idx = r.table((), data, "indexing") or {}
     w = ("indexing",)
@@ -474,6 +474,8 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
         shop_kw["micrometer_resolution"] = resolution
     if tool is not None:
         shop_kw["tool"] = tool
+    if side_clearance is not None:
+        shop_kw["tool_side_clearance_deg"] = side_clearance
     return Config(lathe=lathe, shop=Shop(**shop_kw), path=path, how_found=how_found,
                   theme_dirs=theme_dirs)
 
@@ -591,17 +593,30 @@ def _wires(r: _Reader, data: dict) -> tuple[WireSize, ...]:
     return tuple(out)
 
 
-def _tool(r: _Reader, t: dict | None) -> ToolTip | None:
+def _tool(r: _Reader, t: dict | None) -> tuple[ToolTip | None, float | None]:
+    """Return the [tool] tip (None when not given) and its side clearance [deg] (None)."""
     if t is None:
-        return None
+        return None, None
     w = ("tool",)
-    r.keys(w, t, ("nose_radius", "flat"))
-    if ("nose_radius" in t) == ("flat" in t):
+    r.keys(w, t, ("nose_radius", "flat", "side_clearance"))
+    side = None
+    if "side_clearance" in t:
+        value = t["side_clearance"]
+        if isinstance(value, bool) or not isinstance(value, (int, float)) \
+                or not 0 < value < 45:
+            raise r.error(w + ("side_clearance",),
+                          "side_clearance is the most side clearance ground on the tool, in "
+                          "degrees without quotes, more than 0 and under 45, e.g. "
+                          "side_clearance = 12.")
+        side = float(value)
+    if "nose_radius" in t and "flat" in t or (side is None and not t):
         raise r.error(w, "give the tool tip as either nose_radius = \"0.1 mm\" or "
                          "flat = \"0.2 mm\", one of the two.")
+    if "nose_radius" not in t and "flat" not in t:
+        return None, side
     kind, key = ("radius", "nose_radius") if "nose_radius" in t else ("flat", "flat")
     size = r.length_mm(w, t, key, allow_zero=True, what="tool tip size", example='"0.1 mm"')
-    return ToolTip(kind, size)
+    return ToolTip(kind, size), side
 
 
 # ---------------------------------------------------------------------------------------------

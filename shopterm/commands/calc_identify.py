@@ -5,7 +5,7 @@ from __future__ import annotations
 from shopterm.commands import add_json_option, emit_json
 from shopterm.errors import InvalidEntry
 from shopterm.cutting.identify import COUNTED, Identification, identify
-from shopterm.units import parse_number, parse_positive_length
+from shopterm.units import parse_length, parse_number, parse_positive_length
 
 
 def register(subparsers) -> None:
@@ -25,7 +25,10 @@ def register(subparsers) -> None:
     p.add_argument("--counted", metavar="WHAT", default="crests",
                    help="what --count counts: 'crests' (both end crests included, the default) "
                         "or 'spaces' (whole pitches)")
-    p.add_argument("--angle", metavar="A", help="included flank angle from a gauge: 60, 55, 47.5")
+    p.add_argument("--angle", metavar="A", help="included flank angle from a gauge: 60, 55, "
+                   "47.5, 30 (trapezoidal), 29 (Acme), 0 (square)")
+    p.add_argument("--crest-flat", metavar="F", dest="crest_flat",
+                   help="width of a bolt's crest flat (0 for a rounded crest)")
     p.add_argument("--wire", metavar="W", action="append", default=[],
                    help="wire size used for an --over-wires reading (repeat for two sizes)")
     p.add_argument("--over-wires", metavar="M", action="append", default=[], dest="over_wires",
@@ -86,7 +89,8 @@ def run(args) -> int:
         count=_whole(args.count, "--count"), length=_length(args.length, "length"),
         counted=args.counted,
         angle=None if args.angle is None else parse_number(args.angle),
-        wires=wires, kind=args.kind, limit=limit if limit is not None else 8)
+        wires=wires, kind=args.kind, limit=limit if limit is not None else 8,
+        crest_flat=None if args.crest_flat is None else parse_length(args.crest_flat, "mm"))
     if args.json:
         emit_json(identification_dict(result))
         return 0

@@ -6,9 +6,10 @@ from shopterm.commands import add_json_option, add_units_option, emit_json, leng
 from shopterm.cutting.infeed import METHODS, infeed_method
 from shopterm.cutting.plan import (DEFAULT_MAX_FIRST, DEFAULT_MIN_PASS, PLAN_KINDS, bore_to_prepare,
                                    make_plan)
-from shopterm.cutting.tool import check_tool, standard_tip, tool_depth
+from shopterm.cutting.tool import check_tool, power_tool, standard_tip, tool_depth
+from shopterm.cutting.wires import is_power_form
 from shopterm.errors import InvalidEntry
-from shopterm.lathe.machine import Dial, ToolTip
+from shopterm.lathe.machine import Dial, Shop, ToolTip
 from shopterm.units import parse_length, parse_number
 
 
@@ -97,7 +98,7 @@ def run(args) -> int:
         tip = ToolTip("flat", length(args.tip_flat, "tip flat", positive=False))
     elif args.tip_radius is not None:
         tip = ToolTip("radius", length(args.tip_radius, "tip radius", positive=False))
-    elif shop is not None:
+    elif shop is not None and not (is_power_form(spec.form) and shop.tool.kind == "radius"):
         tip = shop.tool
         notes.append(f"Tool tip from the config: {tip.kind} {tip.size:.3f} mm.")
     else:
@@ -107,6 +108,11 @@ def run(args) -> int:
     offset = parse_number(args.offset)
     method = infeed_method(args.method, spec.form.angle_deg, angle_deg=angle, offset_deg=offset,
                            lathe=lathe, internal=not spec.is_external, hand=spec.hand)
+    power = None
+    if is_power_form(spec.form):
+        power = power_tool(lim, tip, max_side_clearance_deg=(
+            shop.tool_side_clearance_deg if shop is not None else Shop().tool_side_clearance_deg))
+        notes.extend(power.notes)
     depth = tool_depth(lim, od, tip)
     total = depth.total_radial
     if args.depth is not None:
@@ -130,7 +136,8 @@ def run(args) -> int:
     step = parse_number(args.step)
     plan = make_plan(total, method, lathe=lathe, kind=args.plan_kind, passes=passes,
                      finish=finish, spring=_whole(args.spring, "--spring", 0), dial_step=step,
-                     internal=not spec.is_external, feed_dial=feed_dial, **kwargs)
+                     internal=not spec.is_external, feed_dial=feed_dial,
+                     flat_bottom=tip.size if power is not None else 0.0, **kwargs)
     check = check_tool(lim, tip, turned_diameter=od)
     bore = bore_to_prepare(lim) if not spec.is_external else None
     notes += list(depth.notes) + list(plan.notes)
@@ -165,6 +172,13 @@ def run(args) -> int:
             "bore": None if bore is None else {"min": L(bore.minor_min),
                                                "max": L(bore.minor_max),
                                                "suggested": L(bore.suggested)},
+            "power_tool": None if power is None else {
+                "flat": L(power.tip.size), "standard_flat": L(power.standard_flat),
+                "helix_minor_deg": round(power.helix_minor_deg, 3),
+                "helix_major_deg": round(power.helix_major_deg, 3),
+                "leading_clearance_deg": round(power.leading_deg, 3),
+                "trailing_clearance_deg": round(power.trailing_deg, 3),
+                "leading_side": power.leading_side},
             "notes": notes,
         })
         return 0
@@ -192,6 +206,10 @@ def run(args) -> int:
     print_table(rows, ("pass", "radial", "+radial", "compound", "dial"))
     for m in check.messages:
         print(m)
+    if power is not None:
+        print(f"helix {power.helix_minor_deg:.2f}° at the minor, {power.helix_major_deg:.2f}° "
+              f"at the major; side clearance: leading {power.leading_deg:.1f}° (the "
+              f"{power.leading_side} side), trailing {power.trailing_deg:.1f}°")
     if bore is not None:
         print(bore.text)
     for n in notes:

@@ -12,7 +12,8 @@ import sys
 
 from shopterm.commands import add_json_option, add_units_option, emit_json, length_out, print_table
 from shopterm.cutting.remaining import default_compound_angle, fit_check_offer, measure
-from shopterm.cutting.wires import band_over_wires, check_wire, choose_wire, require_wire
+from shopterm.cutting.wires import (band_over_wires, caliper_band, check_wire, choose_wire,
+                                    is_power_form, require_wire)
 from shopterm.errors import InvalidEntry
 from shopterm.standards import limits as thread_limits
 from shopterm.standards import parse
@@ -86,6 +87,9 @@ def run(args) -> int:
                          compound_angle_deg=angle, aim_pd=aim, resolution=resolution, unit=unit)
     band = band_over_wires(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min, wire) \
         if wire_ok else None
+    # Power threads: the thickness at the pitch line, for a gear-tooth caliper (no wire needed).
+    caliper = caliper_band(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min,
+                           lim.basic_major, lim.basic_pd) if is_power_form(spec.form) else None
 
     def L(v):
         return length_out(v, unit)
@@ -100,8 +104,14 @@ def run(args) -> int:
             "wire": L(wire),
             "wire_ok": wire_ok,
             "wire_message": wire_note if not wire_ok else "",
-            "over_wires": ({"at_pd_max": L(band.at_pd_max), "at_pd_min": L(band.at_pd_min)}
+            "over_wires": ({"at_pd_max": L(band.at_pd_max), "at_pd_min": L(band.at_pd_min),
+                            "at_pd_max_simple": L(band.at_pd_max_simple),
+                            "at_pd_min_simple": L(band.at_pd_min_simple)}
                            if band else None),
+            "caliper": None if caliper is None else {
+                "depth_setting_from_basic_major": L(caliper.depth_setting),
+                "normal_thickness_at_pd_max": L(caliper.at_pd_max),
+                "normal_thickness_at_pd_min": L(caliper.at_pd_min)},
             "lead_angle_deg": round(lim.lead_angle_deg, 4),
             "compound_angle_deg": angle,
             "reading": None,
@@ -140,13 +150,21 @@ def run(args) -> int:
     print(f"wire {f(wire)}   best {f(rng.best)}, usable {f(rng.smallest)} to {f(rng.largest)}")
     if not wire_ok:
         print(f"refused: {wire_note}")
+        if caliper is not None:
+            print(f"gear-tooth caliper: depth slide {f(caliper.depth_setting)} from a crest at "
+                  f"the basic major, thickness {f(caliper.at_pd_max)} to {f(caliper.at_pd_min)}")
         return 0
     if args.wire is None and wire_note:
         print(wire_note)
     rows = [("over wires at PD max", f(band.at_pd_max)),
             ("over wires at PD min", f(band.at_pd_min))]
     print_table(rows)
-    print(f"lead angle {lim.lead_angle_deg:.2f}°")
+    print(f"lead angle {lim.lead_angle_deg:.2f}°; the simple formula (lead angle neglected) "
+          f"would read {f(band.at_pd_max_simple)} to {f(band.at_pd_min_simple)}")
+    if caliper is not None:
+        print(f"or a gear-tooth caliper, depth slide {f(caliper.depth_setting)} from a crest at "
+              f"the basic major: thickness square to the thread {f(caliper.at_pd_max)} to "
+              f"{f(caliper.at_pd_min)}")
     if result is None:
         return 0
     r = result

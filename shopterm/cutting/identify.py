@@ -6,7 +6,9 @@ Measurements (all optional, at least one):
   also, where measured, the root diameter (a bolt's minor, a nut's major);
 - the pitch: from a thread gauge in mm or in tpi, or by counting over a measured length. Both
   mm and tpi may be given; they are cross-checked (a 1.27 mm pitch is 20 tpi) and combined;
-- the included flank angle from a gauge (60, 55 or 47.5);
+- the included flank angle from a gauge (60, 55, 47.5, 30 trapezoidal, 29 Acme, 0 square);
+- the width of the crest flat (a bolt's), which tells a trapezoidal or Acme thread (about
+  0.37P) from a 60° one (P/8) and a rounded Whitworth or BA crest (none);
 - readings over wires of a bolt (wire size and reading), each giving a pitch diameter for every
   candidate through the three-wire relation; two wire sizes together test the flank angle.
 
@@ -20,7 +22,9 @@ signed distance in units of how far such a measurement may plausibly stray (``z`
 exp(−½ Σ z²): 1 when every measurement lies where this thread puts it, falling towards 0 as
 they disagree. The pitch is trusted more than a diameter. Worn crests are normal: a bolt's major
 diameter may be well under its class minimum (crest wear, generous allowance below) but rarely
-over its maximum; a nut's minor diameter wears larger. Rivals scoring at least
+over its maximum; a nut's minor diameter wears larger. A power thread's crests wear further —
+a leadscrew or a vice screw runs in its nut for years (``LEADSCREW_WEAR_PER_P``) — while its
+pitch stays exact: such a screw is still offered, with a note. Rivals scoring at least
 ``AMBIGUOUS_RATIO`` of the top score make the answer ambiguous, and ``to_tell_apart`` names the
 measurement that separates them with the expected value for each.
 
@@ -38,7 +42,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import Iterable, Literal, Sequence
 
-from shopterm.cutting.wires import over_wires, pitch_diameter, wire_range
+from shopterm.cutting.wires import is_power_form, over_wires, pitch_diameter, wire_range
 from shopterm.errors import InvalidEntry
 from shopterm.standards.forms import ThreadForm
 from shopterm.standards.spec import Kind, Limits, ThreadSpec
@@ -79,6 +83,14 @@ PD_WEAR_BASE = 0.02
 PD_WEAR_PER_P = 0.03
 PD_OVER = 0.02
 #: Two wire sizes on the right form give the same pitch diameter within this [mm].
+#: A power thread's crests (leadscrews, vice and press screws) wear more: allowance below the
+#: major minimum per unit of pitch. Shop judgement, no source.
+LEADSCREW_WEAR_PER_P = 0.15
+#: How far a crest flat read with a loupe and scale or calipers may stray, and its share of the
+#: pitch (wear widens or narrows it). Shop judgement, no source.
+CREST_FLAT_BASE = 0.05
+CREST_FLAT_PER_P = 0.05
+
 #: Common practice, no source (two micrometer readings of ±0.005 mm and seating).
 WIRE_AGREEMENT = 0.015
 #: A rival scoring at least this share of the top score makes the answer ambiguous.
@@ -148,6 +160,7 @@ class Measured:
     pitch_entries: tuple[PitchEntry, ...]
     angle: float | None
     wires: tuple[WireEntry, ...]
+    crest_flat: float | None = None   # width of a bolt's crest flat [mm]
 
     @property
     def crest(self) -> float | None:
@@ -183,14 +196,16 @@ def measured(*, major: float | None = None, minor: float | None = None,
              count: int | None = None, length: float | None = None,
              counted: Counted = "crests", angle: float | None = None,
              wires: Iterable[tuple[float, float]] = (), kind: Kind | None = None,
-             length_uncertainty: float = LENGTH_UNCERTAINTY) -> Measured:
+             length_uncertainty: float = LENGTH_UNCERTAINTY,
+             crest_flat: float | None = None) -> Measured:
     """Return the measurements checked and the pitch entries cross-compared and combined.
 
     major, minor [mm] (calipers); pitch [mm] and/or tpi [1/in] from a gauge; count with
     length [mm] (see ``pitch_from_count``); angle [deg] included flank angle; wires: pairs of
     (wire diameter [mm], reading over wires [mm]) on a bolt; kind: 'external' or 'internal'
     (default: external when a major diameter is given, internal when only a minor);
-    length_uncertainty [mm]: how well the counted length was read.
+    length_uncertainty [mm]: how well the counted length was read; crest_flat [mm]: the width
+    of a bolt's crest flat (0 for a rounded crest).
     Raises ``InvalidEntry`` saying what to enter instead.
     References: this module's docstring; 1 in = 25.4 mm.
     """
@@ -237,11 +252,20 @@ def measured(*, major: float | None = None, minor: float | None = None,
                               " and ".join(e.how for e in entries))
     if angle is not None:
         if isinstance(angle, bool) or not isinstance(angle, (int, float)) \
-                or not math.isfinite(angle) or not 20 <= angle <= 90:
+                or not math.isfinite(angle) or not (angle == 0 or 20 <= angle <= 90):
             raise InvalidEntry("The flank angle is the included angle from a gauge, between 20 "
-                               "and 90 degrees: 60 (metric, Unified), 55 (Whitworth form) or "
-                               "47.5 (BA).")
+                               "and 90 degrees: 60 (metric, Unified), 55 (Whitworth form), "
+                               "47.5 (BA), 30 (trapezoidal) or 29 (Acme); 0 for a square "
+                               "thread.")
         angle = float(angle)
+    if crest_flat is not None:
+        if isinstance(crest_flat, bool) or not isinstance(crest_flat, (int, float)) \
+                or not math.isfinite(crest_flat) or crest_flat < 0:
+            raise InvalidEntry("The crest flat is a width in mm, 0 or more (0 for a rounded "
+                               "crest).")
+        if kind == "internal":
+            raise InvalidEntry("The crest flat is read on a bolt: leave it out for a nut.")
+        crest_flat = float(crest_flat)
     wire_list: list[WireEntry] = []
     for pair in wires:
         try:
@@ -257,7 +281,8 @@ def measured(*, major: float | None = None, minor: float | None = None,
         raise InvalidEntry("Measure something first: the major diameter of a bolt or the minor "
                            "diameter of a nut with calipers, and the pitch with a gauge or by "
                            "counting threads over a length.")
-    return Measured(kind, major, minor, combined, tuple(entries), angle, tuple(wire_list))
+    return Measured(kind, major, minor, combined, tuple(entries), angle, tuple(wire_list),
+                    crest_flat)
 
 
 # ---- candidates -------------------------------------------------------------------------------
@@ -297,7 +322,7 @@ class TellApart:
     """A measurement that separates two candidates, with what each would give."""
 
     between: tuple[str, str]
-    measure: str               # "pitch", "gauge", "wires", "two wires", "diameter"
+    measure: str    # pitch, gauge, crest flat, depth, starts, wires, two wires, diameter
     how: str
     expected: tuple[Expected, ...]
 
@@ -361,7 +386,8 @@ def _crest_check(m: Measured, spec: ThreadSpec, lim: Limits) -> Check | None:
     if value is None:
         return None
     p = spec.pitch
-    wear = CREST_WEAR_BASE + CREST_WEAR_PER_P * p
+    wear = CREST_WEAR_BASE + (LEADSCREW_WEAR_PER_P if is_power_form(spec.form)
+                              else CREST_WEAR_PER_P) * p
     if m.kind == "external":
         what, basic = "major", lim.basic_major
         hi = lim.major_max if lim.major_max is not None else basic
@@ -447,6 +473,48 @@ def _angle_check(m: Measured, spec: ThreadSpec) -> Check | None:
     return Check("angle", z, text)
 
 
+def crest_flat_of(form: ThreadForm, pitch: float) -> float:
+    """Return the basic crest flat of a bolt of ``form`` [mm] (0 for a rounded crest).
+
+    Flat = 2·crest_trunc·P·tan a: P/8 for 60° (ISO 68-1), 0.366P trapezoidal (ISO 2904),
+    0.3707P Acme (ASME B1.5); a square thread's crest is half the pitch.
+    References: ISO 68-1; ISO 2904; ASME B1.5; square: common practice, no source.
+    """
+    if form.crest_radius > 0:
+        return 0.0
+    if form.angle_deg <= 0:
+        return pitch / 2
+    return 2 * form.crest_trunc * pitch * math.tan(form.half_angle_rad)
+
+
+def _crest_flat_check(m: Measured, spec: ThreadSpec) -> Check | None:
+    if m.crest_flat is None:
+        return None
+    want = crest_flat_of(spec.form, spec.pitch)
+    z = (m.crest_flat - want) / (CREST_FLAT_BASE + CREST_FLAT_PER_P * spec.pitch)
+    shape = "a rounded crest" if want == 0 else f"a crest flat of {_mm(want)}"
+    text = (f"crest flat {_mm(m.crest_flat)} fits {shape}" if abs(z) < 1 else
+            f"crest flat {_mm(m.crest_flat)}, but this thread has {shape}")
+    return Check("form", z, text)
+
+
+def _worn_screw_note(c: Candidate, m: Measured) -> str:
+    """Return the worn-leadscrew note for a power thread whose pitch is exact and crests worn."""
+    if not (is_power_form(c.spec.form) and m.kind == "external" and m.major is not None):
+        return ""
+    by = {k.what: k for k in c.checks}
+    if "pitch" not in by or abs(by["pitch"].z) >= 1 or "major" not in by or by["major"].z >= 0:
+        return ""
+    if "angle" in by and abs(by["angle"].z) >= 1:
+        return ""
+    lim = _limits(c.spec, m.kind)
+    worn = (lim.major_min if lim.major_min is not None else lim.basic_major) - m.major
+    return (f"{c.designation} looks like a worn leadscrew or screw: the pitch is exact, the "
+            f"crests are worn {_mm(worn)} mm under the major minimum. Take the size from the "
+            "least worn part (near the ends), and the flanks over wires, before cutting its "
+            "mate.")
+
+
 def _wire_pd(reading: WireEntry, spec: ThreadSpec) -> float | None:
     try:
         return pitch_diameter(reading.over_wires, reading.wire, spec.form, spec.pitch,
@@ -456,7 +524,7 @@ def _wire_pd(reading: WireEntry, spec: ThreadSpec) -> float | None:
 
 
 def _wire_checks(m: Measured, spec: ThreadSpec, lim: Limits) -> list[Check]:
-    if not m.wires:
+    if not m.wires or spec.form.angle_deg <= 0:     # wires cannot measure a square thread
         return []
     p = spec.pitch
     hi = lim.pd_max
@@ -503,7 +571,8 @@ def _prefilter(m: Measured, spec: ThreadSpec) -> bool:
 def _evaluate(m: Measured, spec: ThreadSpec) -> Candidate:
     lim = _limits(spec, m.kind)
     checks = [c for c in (_pitch_check(m, spec), _angle_check(m, spec),
-                          _crest_check(m, spec, lim), _root_check(m, spec, lim)) if c is not None]
+                          _crest_flat_check(m, spec), _crest_check(m, spec, lim),
+                          _root_check(m, spec, lim)) if c is not None]
     checks.extend(_wire_checks(m, spec, lim))
     score = math.exp(-0.5 * math.fsum(c.z ** 2 for c in checks))
     why = "; ".join(c.text for c in checks)
@@ -516,17 +585,18 @@ def identify(*, major: float | None = None, minor: float | None = None,
              counted: Counted = "crests", angle: float | None = None,
              wires: Iterable[tuple[float, float]] = (), kind: Kind | None = None,
              length_uncertainty: float = LENGTH_UNCERTAINTY, limit: int = 8,
-             threads: Sequence[ThreadSpec] | None = None) -> Identification:
+             threads: Sequence[ThreadSpec] | None = None,
+             crest_flat: float | None = None) -> Identification:
     """Return the catalogue threads ranked against the measurements, and how to tell them apart.
 
-    Parameters as ``measured`` (major, minor, length [mm]; pitch [mm]; tpi [1/in]; angle [deg];
-    wires: (wire [mm], reading [mm]) pairs); limit: most candidates listed; threads: the threads
-    to rank (default: the whole catalogue).
+    Parameters as ``measured`` (major, minor, length, crest_flat [mm]; pitch [mm]; tpi [1/in];
+    angle [deg]; wires: (wire [mm], reading [mm]) pairs); limit: most candidates listed;
+    threads: the threads to rank (default: the whole catalogue).
     References: this module's docstring; limits from the family modules.
     """
     m = measured(major=major, minor=minor, pitch=pitch, tpi=tpi, count=count, length=length,
                  counted=counted, angle=angle, wires=wires, kind=kind,
-                 length_uncertainty=length_uncertainty)
+                 length_uncertainty=length_uncertainty, crest_flat=crest_flat)
     return identify_measured(m, limit=limit, threads=threads)
 
 
@@ -553,6 +623,9 @@ def identify_measured(m: Measured, *, limit: int = 8,
     elif listed[0].score < 0.05:
         note = ("The best fit is poor: check the measurements, or the thread may be a special "
                 "or worn beyond the usual.")
+    worn = _worn_screw_note(listed[0], m) if listed else ""
+    if worn:
+        note = (note + " " + worn).strip()
     if not listed:
         return Identification(m, (), False, (), note)
     top = listed[0]
@@ -614,19 +687,55 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"measure over {n} pitches ({n + 1} crests, first to last): {a.designation} "
             f"{la:.2f} mm, {b.designation} {lb:.2f} mm; or try a "
             f"{_pitch_name(sa)} and a {_pitch_name(sb)} gauge leaf",
-            (Expected(a.designation, f"length of {n} pitches", la, la),
-             Expected(b.designation, f"length of {n} pitches", lb, lb))))
+            _exact(a, b, f"length of {n} pitches", la, lb)))
     if sa.form.angle_deg != sb.form.angle_deg:
         ga, gb = sa.form.angle_deg, sb.form.angle_deg
         out.append(TellApart(
             pair, "gauge",
             f"hold a {ga:g}° and a {gb:g}° gauge leaf (or centre gauge) in the thread against "
             f"the light: {a.designation} is {ga:g}°, {b.designation} {gb:g}°",
-            (Expected(a.designation, "included angle [deg]", ga, ga),
-             Expected(b.designation, "included angle [deg]", gb, gb))))
-        if m.kind == "external" and abs(sa.pitch - sb.pitch) < 0.02 * sa.pitch:
+            _exact(a, b, "included angle [deg]", ga, gb)))
+        fa, fb = crest_flat_of(sa.form, sa.pitch), crest_flat_of(sb.form, sb.pitch)
+        if m.kind == "external" and abs(fa - fb) > 0.1 * max(sa.pitch, sb.pitch):
+            out.append(TellApart(
+                pair, "crest flat",
+                f"look at a crest under a loupe and measure its flat: {a.designation} "
+                f"{_mm(fa)} mm, {b.designation} {_mm(fb)} mm",
+                _exact(a, b, "crest flat", fa, fb)))
+        if m.kind == "external" and abs(sa.pitch - sb.pitch) < 0.02 * sa.pitch \
+                and sa.form.angle_deg > 0 and sb.form.angle_deg > 0:
             out.extend(_wire_tell(a, b, m))
-    if abs(sa.pitch - sb.pitch) <= 1e-9 and sa.form.angle_deg == sb.form.angle_deg:
+    same_shape = _same_proportions(sa.form, sb.form)
+    if sa.form.angle_deg == sb.form.angle_deg and not same_shape:
+        # same angle, other proportions (Acme and stub Acme): the depth tells them apart
+        la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
+        q = "root (minor) diameter" if m.kind == "external" else "root (major) diameter"
+
+        def root_band(lim: Limits) -> tuple[float, float]:
+            if m.kind == "external":
+                lo, hi = lim.minor_min, lim.minor_max
+                basic = lim.basic_minor
+            else:
+                lo, hi = lim.major_min, lim.major_max
+                basic = lim.basic_major
+            return (lo if lo is not None else basic), (hi if hi is not None else basic)
+
+        ra, rb = root_band(la), root_band(lb)
+        out.append(TellApart(
+            pair, "depth",
+            f"measure the {q} with pointed anvils or a caliper's depth blade: "
+            f"{a.designation} {_mm(ra[0])}–{_mm(ra[1])} mm, {b.designation} "
+            f"{_mm(rb[0])}–{_mm(rb[1])} mm",
+            (Expected(a.designation, q, *ra), Expected(b.designation, q, *rb))))
+    if sa.starts != sb.starts:
+        out.append(TellApart(
+            pair, "starts",
+            f"count the grooves that begin at the end of the thread (the starts), or mark the "
+            f"work and measure how far one turn carries a nut: {a.designation} {sa.starts} "
+            f"start{'s' if sa.starts > 1 else ''}, lead {_mm(sa.lead)} mm; {b.designation} "
+            f"{sb.starts}, lead {_mm(sb.lead)} mm",
+            _exact(a, b, "lead", sa.lead, sb.lead)))
+    if abs(sa.pitch - sb.pitch) <= 1e-9 and same_shape and sa.starts == sb.starts:
         la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
         if m.kind == "external":
             ra, rb = (la.major_min, la.major_max), (lb.major_min, lb.major_max)
@@ -645,6 +754,19 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"{b.designation} {_mm(rb[0])}–{_mm(rb[1])} mm",
             (Expected(a.designation, q, ra[0], ra[1]), Expected(b.designation, q, rb[0], rb[1]))))
     return out
+
+
+def _exact(a: Candidate, b: Candidate, quantity: str, va: float,
+           vb: float) -> tuple[Expected, Expected]:
+    """Return what one exact measurement reads on each of two candidates."""
+    return (Expected(a.designation, quantity, va, va), Expected(b.designation, quantity, vb, vb))
+
+
+def _same_proportions(fa: ThreadForm, fb: ThreadForm) -> bool:
+    """Return whether two forms have the same profile (ISO and Unified 60° do)."""
+    pa = (fa.angle_deg, fa.height, fa.crest_trunc, fa.root_trunc, fa.crest_radius, fa.root_radius)
+    pb = (fb.angle_deg, fb.height, fb.crest_trunc, fb.root_trunc, fb.crest_radius, fb.root_radius)
+    return all(abs(x - y) < 1e-9 for x, y in zip(pa, pb))
 
 
 def _pitch_name(spec: ThreadSpec) -> str:

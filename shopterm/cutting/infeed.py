@@ -7,7 +7,11 @@
 - alternating: for coarse pitches. The compound is swung parallel to the bed and moves the tool
   along the work; the cross-slide feeds the depth; each pass the compound shifts the tool toward
   the other flank by the depth just fed × tan(half angle − offset), so the passes cut the two
-  flanks in turn and the groove stays one V of the tool's shape.
+  flanks in turn and the groove stays one V of the tool's shape. Each pass the tool slides
+  along the flank it left last time, so the groove's two flanks only ever move outward and
+  end where the last pass puts them: the same holds for a flat-nosed tool in a trapezoidal or
+  Acme groove (its flanks are at the form angle; its flat finishes the bottom on the last pass).
+- a square thread (0°) is fed radially only.
 
 Compound travel for a radial depth h at angle θ from the cross-slide: h / cos θ.
 
@@ -21,6 +25,7 @@ import math
 from dataclasses import dataclass
 from typing import Literal
 
+from shopterm.cutting.wires import POWER_ANGLES
 from shopterm.errors import InvalidEntry
 
 Method = Literal["radial", "flank", "modified", "alternating"]
@@ -83,10 +88,14 @@ def infeed_method(method: str, form_angle_deg: float, *, angle_deg: float | None
     """
     if method not in METHODS:
         raise InvalidEntry(f"{method!r} is not an infeed method: use one of {', '.join(METHODS)}.")
-    if not (0 < form_angle_deg < 180):
+    if not (0 <= form_angle_deg < 180):
         raise InvalidEntry(f"A form angle of {form_angle_deg:g}° cannot be cut: use the "
                            "included angle, e.g. 60 or 55.")
-    if not (0 <= offset_deg < form_angle_deg / 2):
+    if form_angle_deg == 0 and method != "radial":
+        raise InvalidEntry("A square thread has parallel flanks, so there is no flank to feed "
+                           "along: feed it radially (method radial) with a tool as wide as the "
+                           "groove, or rough with a narrower one and widen it.")
+    if form_angle_deg > 0 and not (0 <= offset_deg < form_angle_deg / 2):
         raise InvalidEntry(f"The flank offset must be at least 0 and under half the form angle "
                            f"({form_angle_deg / 2:g}°).")
     half = form_angle_deg / 2
@@ -137,6 +146,11 @@ def infeed_method(method: str, form_angle_deg: float, *, angle_deg: float | None
                  "Each pass: compound to the setting shown, cut, withdraw the cross-slide, run "
                  "back, return the cross-slide to its mark.")
         feeds, factor, shift = "compound", compound_factor(true), 0.0
+    if form_angle_deg in POWER_ANGLES and method in ("radial", "alternating"):
+        # common practice, no source: a power thread's wide flat takes a large chip radially.
+        notes.append("Power thread: the flat-nosed tool cuts the bottom and both flanks at "
+                     "once; keep the passes light, use plenty of cutting oil, and finish with "
+                     "the standard-width flat.")
     if internal:
         steps += ("Internal thread: the depth is fed outward, away from the bore's centre; "
                   "withdraw toward the centre.",)

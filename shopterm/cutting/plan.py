@@ -37,6 +37,8 @@ PLAN_KINDS: tuple[str, ...] = ("constant-area", "equal")
 DEFAULT_MAX_FIRST = 0.2
 #: No infeed pass below this [mm radial] (common practice, no source).
 DEFAULT_MIN_PASS = 0.02
+#: No plan sized from the largest pass has more passes than this (a guard, our own).
+MAX_PASSES = 400
 #: The dial assumed when no lathe is configured: 0.02 mm per division on radius, 100 divisions.
 DEFAULT_DIAL = Dial("mm", 0.02, 100, reads_diameter=False)
 
@@ -92,8 +94,58 @@ def equal_depths(total: float, passes: int) -> tuple[float, ...]:
     return tuple(out)
 
 
-def _continued_depths(start: float, end: float, passes: int, kind: str) -> tuple[float, ...]:
+def groove_area(depth: float, flat: float, tan_half: float) -> float:
+    """Return the cross-section [mm²] a flat-nosed tool has cut at radial ``depth`` [mm].
+
+    flat [mm]: the tool's tip width; tan_half: tangent of half the form angle (0 square).
+    A = flat·h + tan(a)·h² (the flat's strip and the two flank triangles).
+    References: plane geometry.
+    """
+    return flat * depth + tan_half * depth * depth
+
+
+def _depth_for_area(area: float, flat: float, tan_half: float) -> float:
+    """Return the radial depth [mm] at which ``groove_area`` reaches ``area`` (its inverse)."""
+    if tan_half <= 0:
+        return area / flat
+    return 2 * area / (flat + math.sqrt(flat * flat + 4 * tan_half * area))
+
+
+def groove_area_depths(total: float, passes: int, flat: float, tan_half: float,
+                       start: float = 0.0) -> tuple[float, ...]:
+    """Return cumulative radial depths [mm] that keep the chip area of a flat-bottomed groove
+    as the published constant chip-area plan does.
+
+    total [mm]; passes ≥ 1; flat [mm] > 0: the tool's tip width; tan_half: tan(half the form
+    angle); start [mm]: depth already cut. From the surface the area after pass x is
+    A(ap)·φ_x/(nap − 1) with the published φ (0.3, 1, 2, … nap − 1); continuing from a depth
+    already cut, equal areas. With no flat this is the published depth law (area ∝ depth²);
+    with a wide flat the area is nearly ∝ depth and the passes nearly equal.
+    References: published-values.md §6 (threading-tool handbooks), generalised to the true
+    groove area (computed, ``groove_area``).
+    """
+    _check_depth_and_passes(total, passes)
+    if not (flat > 0) or tan_half < 0:
+        raise InvalidEntry("A flat-bottomed groove needs a tip flat greater than zero.")
+    a_end = groove_area(total, flat, tan_half)
+    if start > 0:
+        a0 = groove_area(start, flat, tan_half)
+        fractions = [a0 + (a_end - a0) * i / passes for i in range(1, passes + 1)]
+    elif passes == 1:
+        fractions = [a_end]
+    else:
+        fractions = [a_end * (0.3 if x == 1 else 1.0 if x == 2 else x - 1.0) / (passes - 1)
+                     for x in range(1, passes + 1)]
+    out = [_depth_for_area(a, flat, tan_half) for a in fractions]
+    out[-1] = float(total)
+    return tuple(out)
+
+
+def _continued_depths(start: float, end: float, passes: int, kind: str,
+                      flat: float = 0.0, tan_half: float = 0.0) -> tuple[float, ...]:
     """Return cumulative depths from ``start`` to ``end`` [mm] for the rest of a cut."""
+    if flat > 0 and kind == "constant-area":
+        return groove_area_depths(end, passes, flat, tan_half, start)
     if start <= 0:
         base = (constant_area_depths if kind == "constant-area" else equal_depths)(end, passes)
         return base
@@ -175,6 +227,7 @@ class Plan:
     notes: tuple[str, ...] = ()
     cautions: tuple[str, ...] = ()
     first_side: int = 1           # alternating: +1 pass 1 shifts right, −1 left
+    flat_bottom: float = 0.0      # [mm] a power thread's flat-nosed tool: the plan's chip area
 
     @property
     def count(self) -> int:
@@ -204,7 +257,7 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
               finish: float = 0.0, spring: int = 1, dial_step: float = 1.0,
               internal: bool = False, start_radial: float = 0.0, start_side: float = 0.0,
               first_side: int = 1, feed_dial: Dial | None = None,
-              notes: tuple[str, ...] = ()) -> Plan:
+              notes: tuple[str, ...] = (), flat_bottom: float = 0.0) -> Plan:
     """Return the pass plan that takes the radial infeed from ``start_radial`` to ``total_radial``.
 
     total_radial [mm]; method: from ``infeed_method``; lathe: its dials (None: DEFAULT_DIAL);
@@ -212,7 +265,10 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
     derived from ``max_first`` [mm]); min_pass [mm]: no infeed pass below it; finish [mm]: a
     last pass of this depth (0: none); spring: spring passes after the last; dial_step: rounding
     step [divisions]; start_radial [mm], start_side [mm], first_side: where a replanned cut
-    starts; feed_dial: overrides the feeding slide's dial.
+    starts; feed_dial: overrides the feeding slide's dial; flat_bottom [mm]: for a power
+    thread cut with a flat-nosed tool, the tip's width: a constant-area plan then keeps the
+    groove's true chip area (``groove_area_depths``) and, the pass count not given, takes the
+    fewest passes whose largest radial step is at most ``max_first``.
     References: published-values.md §6.
     """
     _check_kind(kind)
@@ -237,7 +293,23 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
         raise InvalidEntry(f"The finishing pass ({finish:.3f} mm) is under the minimum pass "
                            f"({min_pass:.3f} mm): make it at least that, or set it to 0.")
     main = depth - finish
-    if passes is None:
+    if not (flat_bottom >= 0) or not math.isfinite(flat_bottom):
+        raise InvalidEntry("The tool's tip flat cannot be negative.")
+    tan_half = math.tan(math.radians(method.form_angle_deg / 2))
+    flat = flat_bottom if kind == "constant-area" else 0.0
+
+    def depths(n: int) -> tuple[float, ...]:
+        return _continued_depths(start_radial, start_radial + main, n, kind, flat, tan_half)
+
+    def largest_step(n: int) -> float:
+        cums = depths(n)
+        return max(b - a for a, b in zip((start_radial,) + cums, cums))
+
+    if passes is None and flat > 0:
+        n_main = max(1, math.ceil(main / max_first - 1e-9))
+        while largest_step(n_main) > max_first + 1e-12 and n_main < MAX_PASSES:
+            n_main += 1
+    elif passes is None:
         n_main = passes_for_first(main, max_first, kind) if start_radial <= 0 else \
             max(1, math.ceil(main / max_first - 1e-9))
     else:
@@ -247,9 +319,6 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
         if n_main < 1:
             raise InvalidEntry("With a finishing pass the plan needs at least 2 passes.")
     asked = n_main
-
-    def depths(n: int) -> tuple[float, ...]:
-        return _continued_depths(start_radial, start_radial + main, n, kind)
 
     def deep_enough(n: int) -> bool:
         cums = depths(n)
@@ -323,7 +392,7 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
     return Plan(float(total_radial), float(start_radial), method, kind, internal, feed_dial,
                 cross_dial, side_dial, float(dial_step), float(min_pass), float(max_first),
                 float(finish), tuple(out), springs, tuple(notes_out) + method.notes, cautions,
-                first_side)
+                first_side, float(flat_bottom))
 
 
 def replan(plan: Plan, measured_pd: float, aim_pd: float, done_cum_radial: float, *,
@@ -374,7 +443,8 @@ def replan(plan: Plan, measured_pd: float, aim_pd: float, done_cum_radial: float
                     spring=len(plan.spring_passes), dial_step=plan.dial_step,
                     internal=plan.internal, start_radial=done_cum_radial, start_side=last_side,
                     first_side=first_side, feed_dial=plan.feed_dial, notes=tuple(notes),
-                    lathe=_DialsOnly(plan.cross_dial, plan.side_dial or plan.feed_dial))
+                    lathe=_DialsOnly(plan.cross_dial, plan.side_dial or plan.feed_dial),
+                    flat_bottom=plan.flat_bottom)
     return replace(new, cautions=tuple(cautions) + new.cautions)
 
 

@@ -55,7 +55,7 @@ def default_compound_angle(form: ThreadForm) -> float:
     for angle, (value, _src) in COMPOUND_ANGLES.items():
         if abs(angle - form.angle_deg) < 1e-9:
             return value
-    return form.angle_deg / 2 - 0.5
+    return max(form.angle_deg / 2 - 0.5, 0.0)
 
 
 def feed_direction(kind: str) -> str:

@@ -24,6 +24,7 @@ from dataclasses import dataclass
 from shopterm.errors import InvalidEntry
 from shopterm.lathe.machine import ToolTip
 from shopterm.standards.spec import Limits
+from shopterm.units import Unit, format_length
 
 #: Below this the core treats two surfaces as touching, not overlapping [mm].
 TOUCH = 1e-6
@@ -242,6 +243,21 @@ def _nominal_root_radius(limits: Limits) -> float:
     return form.height / 6 * p   # ISO 68-1 nominal external root radius H/6
 
 
+def _radial_clearance(limits: Limits) -> float:
+    """Return a power thread's crest clearance on radius [mm]: ISO 2904 ac is given on radius
+    (D4 = d + 2ac), ASME B1.5's major and minor clearances on diameter."""
+    if not limits.clearance:
+        return 0.0
+    return limits.clearance if limits.spec.form.angle_deg == 30 else limits.clearance / 2
+
+
+def _nominal_root_tip(limits: Limits) -> ToolTip:
+    """Return the tip of the mating external thread's nominal root (a flat for power forms)."""
+    if _is_power(limits):
+        return ToolTip("flat", _basic_root_flat(limits))
+    return ToolTip("radius", _nominal_root_radius(limits))
+
+
 def external_surface(limits: Limits, pd: float, crest_diameter: float,
                      tip: ToolTip | None = None) -> Surface:
     """Return the external thread's surface at pitch diameter ``pd`` [mm].
@@ -252,7 +268,7 @@ def external_surface(limits: Limits, pd: float, crest_diameter: float,
     """
     spec = limits.spec
     a, p = spec.form.half_angle_rad, spec.pitch
-    tip = tip or ToolTip("radius", _nominal_root_radius(limits))
+    tip = tip or _nominal_root_tip(limits)
     clip, radius = _tool_end(tip, p, a, pd / 2, outward=False)
     return Surface(p, a, pd / 2, outer_clip=crest_diameter / 2,
                    outer_radius=spec.form.crest_radius * p, inner_clip=clip, inner_radius=radius)
@@ -270,6 +286,8 @@ def internal_surface(limits: Limits, pd: float, crest_diameter: float,
     form, a, p = spec.form, spec.form.half_angle_rad, spec.pitch
     if tip is None:
         clip, radius = limits.basic_major / 2, form.crest_radius * p
+        if spec.is_external and _is_power(limits):
+            clip += _radial_clearance(limits)     # the nut's root clears the screw's crest
     else:
         clip, radius = _tool_end(tip, p, a, pd / 2, outward=True)
     return Surface(p, a, pd / 2, outer_clip=clip, outer_radius=radius,
@@ -412,6 +430,10 @@ def check_tool(limits: Limits, tip: ToolTip, aim_pd: float | None = None,
     """
     spec = limits.spec
     p = spec.pitch
+    if spec.form.angle_deg <= 0:
+        raise InvalidEntry("A square thread's tool is a square-nosed parting-style tool as wide "
+                           f"as the groove ({p / 2:.3f} mm at basic); there is no flank to draw "
+                           "against the mating thread.")
     aim = limits.pd_mid if aim_pd is None else float(aim_pd)
     t = tip_beyond_pitch_line(tip, p, spec.form.angle_deg)
     fails: list[str] = []
@@ -472,18 +494,22 @@ def check_tool(limits: Limits, tip: ToolTip, aim_pd: float | None = None,
     interference = max(worst, 0.0) if worst > TOUCH else 0.0
     largest = None
     if interference > 0:
-        largest = _largest_clear_radius(limits, aim, ext, nut, internal)
-        fix = (f" Regrind to a radius of at most {largest:.3f} mm." if largest is not None
-               else " Regrind the tip.")
+        if _is_power(limits):
+            fix = f" Grind the flat to the standard {form_tip_flat(limits):.3f} mm."
+        else:
+            largest = _largest_clear_radius(limits, aim, ext, nut, internal)
+            fix = (f" Regrind to a radius of at most {largest:.3f} mm." if largest is not None
+                   else " Regrind the tip.")
         where = "root the tip cuts in the nut" if internal else "root the tip leaves"
         fails.append(f"The {where} fouls {mate_text} by {interference:.3f} mm (on radius) "
                      f"before the thread is cut.{fix}")
-    else:
-        goods.append(f"The root clears {mate_text} by {max(-worst, 0.0):.3f} mm.")
+    clearance = -worst if abs(worst) > TOUCH else 0.0     # touching: 0, not −0
+    if interference <= 0:
+        goods.append(f"The root clears {mate_text} by {max(clearance, 0.0):.3f} mm.")
     picture = _picture(ext, nut, "internal" if internal else "external", aim / 2)
     messages = tuple(["Fails: " + m for m in fails] + ["Warning: " + m for m in warns]
                      + ["OK: " + m for m in goods])
-    return ToolCheck(not fails, messages, interference, -worst, rmin, rmax, largest, picture)
+    return ToolCheck(not fails, messages, interference, clearance, rmin, rmax, largest, picture)
 
 
 def _internal_basic_minor(limits: Limits) -> float:
@@ -519,6 +545,173 @@ def _largest_clear_radius(limits: Limits, aim: float, ext: Surface, nut: Surface
     return lo
 
 
+# ---------------------------------------------------------------------------------------------
+# Power threads: the flat-nosed tool, its side clearances and the helix
+
+
+#: A flat this much wider than the groove at the root is still taken as fitting [mm] (a
+#: 0.0001 in entry step, and what a ground flat is held to). Our own tolerance, no source.
+FLAT_TOLERANCE = 0.005
+
+#: Side clearance wanted beyond the helix angle on each flank [deg]. Common practice, no source
+#: (texts give 2° to 5°; a larger one weakens the edge).
+WORKING_CLEARANCE_DEG = 3.0
+
+
+def _is_power(limits: Limits) -> bool:
+    from shopterm.cutting.wires import is_power_form
+    return is_power_form(limits.spec.form)
+
+
+def form_tip_flat(limits: Limits) -> float:
+    """Return the flat [mm] at the tip of the tool that cuts this thread's root.
+
+    Limits.tip_flat where the standard gives it (ISO 2904 root width at d3; ASME B1.5
+    0.3707p − 0.259 × clearance); else the basic form's flat at the root, P·2·root_trunc·tan a
+    (0.366P for 30°, 0.3707P for 29°), and P/2 for a square thread.
+    References: ISO 2904; ASME B1.5; square thread: common practice, no source.
+    """
+    return limits.tip_flat if limits.tip_flat is not None else _basic_root_flat(limits)
+
+
+def _basic_root_flat(limits: Limits) -> float:
+    """Return the basic form's flat at the root [mm]: 2·root_trunc·P·tan a, P/2 when square."""
+    form, p = limits.spec.form, limits.spec.pitch
+    if form.angle_deg <= 0:
+        return p / 2
+    return 2 * form.root_trunc * p * math.tan(form.half_angle_rad)
+
+
+def helix_angle_deg(lead: float, diameter: float) -> float:
+    """Return the helix (lead) angle [deg] of a lead [mm] at a diameter [mm]: atan(L / (π d)).
+
+    References: geometry of the helix; ``Limits.lead_angle_deg`` at the pitch diameter.
+    """
+    if not (diameter > 0):
+        raise InvalidEntry("The diameter must be greater than zero.")
+    return math.degrees(math.atan(lead / (math.pi * diameter)))
+
+
+@dataclass(frozen=True)
+class PowerTool:
+    """A flat-nosed tool for a power thread: the tip, the helix and each flank's side clearance.
+
+    Angles in degrees, lengths in mm. The leading flank is the tool's side facing the way the
+    carriage moves (toward the headstock for a right-hand thread cut toward the chuck); it
+    needs the helix angle at the minor diameter plus the working clearance, the trailing flank
+    the working clearance less the helix angle at the major diameter (negative: that side may
+    lean past square by that much and still clear).
+    """
+
+    tip: ToolTip                    # the flat in use
+    standard_flat: float            # the standard's flat for this thread
+    groove_at_root: float           # width of the groove at the root diameter, at the aim PD
+    root_diameter: float            # d3 (external) or D4 (internal) used for that width
+    helix_minor_deg: float
+    helix_pitch_deg: float
+    helix_major_deg: float
+    working_clearance_deg: float
+    leading_deg: float              # side clearance the leading flank needs
+    trailing_deg: float             # side clearance the trailing flank needs
+    max_side_clearance_deg: float   # the most the tool has ground (the configured limit)
+    leading_side: str               # 'headstock' or 'tailstock'
+    notes: tuple[str, ...] = ()
+
+    def lines(self, unit: Unit = "mm") -> tuple[str, ...]:
+        """Return the side clearances as short lines (≤ 38 columns) to set beside a picture,
+        the flat in ``unit``."""
+        toward = "chuck" if self.leading_side == "headstock" else "tailstock"
+        res = 0.0001 if unit == "in" else 0.001
+        return (f"Helix: minor {self.helix_minor_deg:.2f}°",
+                f"       major {self.helix_major_deg:.2f}°",
+                f"Leading side (to {toward}):",
+                f"  clearance {self.leading_deg:.1f}°",
+                "Trailing side:",
+                f"  clearance {self.trailing_deg:.1f}°",
+                f"Flat {format_length(self.tip.size, unit, res)}",
+                f"  standard {format_length(self.standard_flat, unit, res)}")
+
+
+def power_tool(limits: Limits, tip: ToolTip | None = None, *, aim_pd: float | None = None,
+               working_clearance_deg: float = WORKING_CLEARANCE_DEG,
+               max_side_clearance_deg: float = 15.0) -> PowerTool:
+    """Return the flat-nosed tool for a trapezoidal, Acme or square thread, or refuse it.
+
+    limits: the thread (a 30°, 29° or square form); tip: the flat ground (None: the standard
+    flat, ``form_tip_flat``); aim_pd [mm] (default the middle of the band);
+    working_clearance_deg [deg]; max_side_clearance_deg [deg]: the most side clearance the tool
+    has (``Shop.tool_side_clearance_deg``).
+    Raises InvalidEntry when: the form is not a power form; the tip is a nose radius; the flat
+    is wider than the groove at the root diameter (fed to the root it would cut the flanks
+    back); the leading flank needs more clearance than the tool has (lead too steep).
+    Side clearance: leading = helix at the minor diameter + working clearance; trailing =
+    working clearance − helix at the major diameter (the diameters the flanks work between: a
+    screw's root d3 and crest, a nut's bore and root D4).
+    References: side clearance rule as given in machine-shop texts (Machinery's Handbook,
+    "Thread cutting tools: side clearance"), from memory; ISO 2904 / ASME B1.5 root flats.
+    """
+    spec = limits.spec
+    if not _is_power(limits):
+        raise InvalidEntry(f"A flat-nosed power-thread tool is for trapezoidal, Acme and square "
+                           f"threads, not a {spec.form.angle_deg:g}° form.")
+    if not (0 <= working_clearance_deg < 45) or not (0 < max_side_clearance_deg < 45):
+        raise InvalidEntry("Side clearances are in degrees: the working clearance 0 to 45, the "
+                           "most the tool has more than 0 and under 45.")
+    p, a = spec.pitch, spec.form.half_angle_rad
+    standard = form_tip_flat(limits)
+    tip = tip or ToolTip("flat", standard)
+    if tip.kind != "flat":
+        raise InvalidEntry(f"A {spec.form.name} thread has a flat root: grind the tool with a "
+                           f"flat tip of {standard:.3f} mm, not a nose radius.")
+    aim = limits.pd_mid if aim_pd is None else float(aim_pd)
+    if spec.is_external:
+        root = limits.minor_max if limits.minor_max is not None else limits.basic_minor
+        groove = p / 2 - (aim - root) * math.tan(a)
+    else:
+        root = limits.major_min if limits.major_min is not None else limits.basic_major
+        groove = p / 2 - (root - aim) * math.tan(a)
+    where = "d3" if spec.is_external else "D4"
+    if tip.size > groove + FLAT_TOLERANCE:
+        raise InvalidEntry(
+            f"A {tip.size:.3f} mm flat is wider than the groove at the root ({groove:.3f} mm at "
+            f"{where} {root:.3f} mm for a pitch diameter of {aim:.3f} mm): fed to the root it "
+            f"would cut into the flanks and leave the thread thin. Grind the flat to "
+            f"{standard:.3f} mm (at most {groove:.3f} mm).")
+    if tip.size <= 0:
+        raise InvalidEntry(f"A power-thread tool needs a flat tip: grind it to {standard:.3f} mm.")
+    # the smallest and largest diameters the tool's flanks work at: a screw from its root to
+    # its crest, a nut from its crest (the bore) to its root
+    if spec.is_external:
+        minor = root
+        major = limits.major_max if limits.major_max is not None else limits.basic_major
+    else:
+        minor = limits.minor_min if limits.minor_min is not None else limits.basic_minor
+        major = root
+    h_minor = helix_angle_deg(spec.lead, minor)
+    h_major = helix_angle_deg(spec.lead, major)
+    leading = h_minor + working_clearance_deg
+    trailing = working_clearance_deg - h_major
+    side = "headstock" if spec.hand == "RH" else "tailstock"
+    if leading > max_side_clearance_deg + 1e-9:
+        raise InvalidEntry(
+            f"The lead is too steep for this tool: the leading flank needs {leading:.1f}° of "
+            f"side clearance (helix {h_minor:.1f}° at the minor diameter + "
+            f"{working_clearance_deg:g}° working clearance), the tool has at most "
+            f"{max_side_clearance_deg:g}°. Grind the leading side to {leading:.1f}° or set the "
+            "tool in a holder tilted to the helix angle, and set side_clearance in [tool].")
+    notes: list[str] = []
+    if tip.size < standard - FLAT_TOLERANCE:
+        notes.append(f"The flat {tip.size:.3f} mm is narrower than the standard "
+                     f"{standard:.3f} mm: the root is cut deeper than the standard's "
+                     f"({where}), leaving the thread weaker.")
+    if trailing < 0:
+        notes.append(f"The helix leans the trailing flank away from the tool: that side may be "
+                     f"ground up to {-trailing:.1f}° past square and still clear.")
+    return PowerTool(tip, standard, groove, root, h_minor, limits.lead_angle_deg, h_major,
+                     float(working_clearance_deg), leading, trailing,
+                     float(max_side_clearance_deg), side, tuple(notes))
+
+
 def standard_tip(limits: Limits) -> ToolTip:
     """Return a tip matching the standard's root for this thread (used when none is entered).
 
@@ -529,6 +722,8 @@ def standard_tip(limits: Limits) -> ToolTip:
     References: ISO 68-1; ISO 965-1; ASME B1.1; BS 84; BS 93.
     """
     spec, p = limits.spec, limits.spec.pitch
+    if _is_power(limits):
+        return ToolTip("flat", form_tip_flat(limits))
     if spec.is_external:
         lo, hi = limits.root_radius_min, limits.root_radius_max
         if lo is not None and hi is not None:

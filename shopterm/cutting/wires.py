@@ -118,6 +118,9 @@ def wire_constants(form: ThreadForm) -> WireConstants:
     References: NBS H28 three-wire method; published-values.md §5 (60° range 0.505182P–1.010363P);
     BS 84, BS 93 crest radii.
     """
+    if form.angle_deg <= 0:
+        raise InvalidEntry("Wires cannot measure a square thread (its flanks are parallel): "
+                           "measure the groove width and the minor diameter instead.")
     a = form.half_angle_rad
     c_w = 1 + 1 / math.sin(a)
     c_p = 0.5 / math.tan(a)
@@ -195,6 +198,8 @@ def check_wire(form: ThreadForm, pitch: float, wire: float, owned: Iterable[Wire
         use = "Use " + _one_of([_wire_label(o, unit) for o in fitting]) + " from your sets."
     else:
         use = "None of your sets fits: use a wire close to " + f(rng.best) + "."
+        if is_power_form(form):
+            use += " " + NO_WIRE_OFFER
     msg = (f"A {f(w)} wire is {why} of this thread (it needs {f(rng.smallest)} to "
            f"{f(rng.largest)}, best {f(rng.best)}). {use}")
     return WireCheck(w, False, rng, msg, fitting)
@@ -236,10 +241,146 @@ def choose_wire(form: ThreadForm, pitch: float, owned: Iterable[WireSize] = (),
         o = fitting[0]
         return WireChoice(o.size, o, rng, f"Using your {_wire_label(o, unit)} wires.")
     what = "None of your wire sets fits this thread" if owned else "No wire sets are configured"
+    offer = " " + NO_WIRE_OFFER if is_power_form(form) else ""
     return WireChoice(rng.best, None, rng,
                       f"{what}: figures are for the best size, {format_length(rng.best, unit, res)} "
                       f"(anything from {format_length(rng.smallest, unit, res)} to "
-                      f"{format_length(rng.largest, unit, res)} works).")
+                      f"{format_length(rng.largest, unit, res)} works).{offer}")
+
+
+# ---- power threads without a fitting wire -----------------------------------------------------
+
+#: The included angles of the power-transmission forms (trapezoidal 30°, Acme and stub Acme 29°,
+#: square 0°), measured where no wire set fits with one wire or on the thread's thickness.
+POWER_ANGLES: tuple[float, ...] = (30.0, 29.0, 0.0)
+
+#: Offered when no owned wire fits a power thread. Published practice for Acme and trapezoidal
+#: threads: measure over one wire and the opposite crest, or the thread thickness at the pitch
+#: line with a gear-tooth vernier caliper (ASME B1.5 and Machinery's Handbook, from memory).
+NO_WIRE_OFFER = ("Without a fitting wire, measure over one wire and the opposite crest, or "
+                 "the thread thickness at the pitch line with a gear-tooth vernier caliper "
+                 "(half the pitch at basic size).")
+
+
+def is_power_form(form: ThreadForm) -> bool:
+    """Return whether ``form`` is a power-transmission form (30°, 29° or square)."""
+    return any(abs(form.angle_deg - a) < 1e-9 for a in POWER_ANGLES)
+
+
+def pd_single_wire(m: float, wire: float, form: ThreadForm, pitch: float, major: float,
+                   lead: float | None = None, method: Method = "exact") -> float:
+    """Return the pitch diameter [mm] from a reading over one wire and the opposite crest.
+
+    m [mm]: micrometer over the wire and the crest across the axis; major [mm]: that crest's
+    diameter, measured; wire, pitch, lead [mm]. The reading spans the crest radius and the
+    wire's top, major/2 + X + W/2, where three wires read 2X + W: M = 2m − major.
+    References: ASME B1.5 one-wire method (from memory); geometry as ``wire_contact``.
+    """
+    _positive(m, "reading over the wire")
+    d = _positive(major, "measured major diameter")
+    if m <= d / 2:
+        raise InvalidEntry("A reading over one wire and the opposite crest must be more than "
+                           "half the major diameter: check the reading and the major.")
+    return pitch_diameter(2 * m - d, wire, form, pitch, lead, method)
+
+
+def _thickness_parts(form: ThreadForm, pitch: float) -> tuple[float, float]:
+    p = _positive(pitch, "pitch")
+    if form.angle_deg <= 0:
+        raise InvalidEntry("A square thread is as thick at every depth, so its thickness does "
+                           "not give the pitch diameter: measure the thickness itself (half the "
+                           "pitch) and the minor diameter.")
+    return p, math.tan(form.half_angle_rad)
+
+
+def _lead_angle(lead: float, pd: float) -> float:
+    return math.atan(lead / (math.pi * pd))
+
+
+def thread_thickness(pd: float, form: ThreadForm, pitch: float, level_diameter: float,
+                     lead: float | None = None, normal: bool = False) -> float:
+    """Return the thread's thickness [mm] at ``level_diameter`` for pitch diameter ``pd``.
+
+    pd, pitch, level_diameter [mm]; lead [mm] (default the pitch); normal: thickness square to
+    the thread (the caliper laid over at the lead angle), else along the axis. Axial thickness
+    t = P/2 − (D − E)·tan a (P/2 at the pitch line, thinner toward the crest); normal thickness
+    t·cos λ, tan λ = L/(π E).
+    References: gear-tooth vernier caliper on a thread, Machinery's Handbook (Acme thread
+    thickness P/2 at the pitch line; normal thickness = axial × cos of the lead angle), from
+    memory; ISO 2904 / ASME B1.5 basic profiles.
+    """
+    p, tan_a = _thickness_parts(form, pitch)
+    e = _positive(pd, "pitch diameter")
+    l = p if lead is None else _positive(lead, "lead")
+    t = p / 2 - (level_diameter - e) * tan_a
+    if t <= 0:
+        raise InvalidEntry("At that depth the thread has no thickness left: set the caliper's "
+                           "depth slide to reach the pitch line, not the crest.")
+    return t * math.cos(_lead_angle(l, e)) if normal else t
+
+
+def pd_from_thickness(thickness: float, form: ThreadForm, pitch: float, level_diameter: float,
+                      lead: float | None = None, normal: bool = False) -> float:
+    """Return the pitch diameter [mm] from a thread thickness read at ``level_diameter`` [mm].
+
+    thickness [mm]; pitch, lead [mm]; level_diameter [mm]: the measured crest diameter less
+    twice the caliper's depth setting; normal: the thickness was read square to the thread.
+    Inverse of ``thread_thickness``: E = D − (P/2 − t)/tan a, t axial (iterated on λ for a
+    normal reading).
+    References: as ``thread_thickness``.
+    """
+    p, tan_a = _thickness_parts(form, pitch)
+    t = _positive(thickness, "thread thickness")
+    l = p if lead is None else _positive(lead, "lead")
+    if t >= p:
+        raise InvalidEntry(f"A thread thickness of {t:.3f} mm is a whole pitch or more: check "
+                           "the reading and its unit.")
+    e = level_diameter - (p / 2 - t) / tan_a
+    for _ in range(50 if normal else 0):
+        if e <= 0:
+            break
+        nxt = level_diameter - (p / 2 - t / math.cos(_lead_angle(l, e))) / tan_a
+        if abs(nxt - e) < 1e-12:
+            e = nxt
+            break
+        e = nxt
+    if e <= 0:
+        raise InvalidEntry("That thickness cannot be right at this depth setting: check the "
+                           "reading, the depth slide and the crest diameter.")
+    return e
+
+
+@dataclass(frozen=True)
+class CaliperBand:
+    """A gear-tooth caliper's settings for a pitch-diameter band [mm]."""
+
+    depth_setting: float        # the depth slide, from the crest down to the basic pitch line
+    level_diameter: float       # where the jaws read: crest − 2 × depth_setting
+    at_pd_max: float            # thickness to read at the top of the band
+    at_pd_min: float            # … at the bottom
+    normal: bool                # thickness square to the thread (else along the axis)
+    lead_angle_deg: float       # at the middle of the band
+
+
+def caliper_band(form: ThreadForm, pitch: float, lead: float, pd_max: float, pd_min: float,
+                 crest_diameter: float, basic_pd: float, normal: bool = True) -> CaliperBand:
+    """Return the depth setting and the thicknesses that bound the band.
+
+    form; pitch, lead [mm]; pd_max, pd_min [mm]; crest_diameter [mm]: the turned major,
+    measured; basic_pd [mm]: the depth slide is set to reach the basic pitch line,
+    (crest − basic PD)/2; normal: read square to the thread (default, as the jaws sit).
+    References: as ``thread_thickness``.
+    """
+    depth = (crest_diameter - basic_pd) / 2
+    if depth <= 0:
+        raise InvalidEntry("The crest diameter must be larger than the pitch diameter: check "
+                           "the measured major.")
+    level = crest_diameter - 2 * depth
+    mid = (pd_max + pd_min) / 2
+    return CaliperBand(depth, level,
+                       thread_thickness(pd_max, form, pitch, level, lead, normal),
+                       thread_thickness(pd_min, form, pitch, level, lead, normal), normal,
+                       math.degrees(_lead_angle(lead, mid)))
 
 
 # ---- the three-wire relation ----------------------------------------------------------------

@@ -190,3 +190,6 @@ class Shop:
     wires: tuple[WireSize, ...] = ()
     micrometer_resolution: float = 0.001    # [mm]
     tool: ToolTip = field(default_factory=lambda: ToolTip("radius", 0.1))
+    #: The most side clearance ground on the threading tool's flanks [deg]; a lead whose
+    #: leading flank needs more is refused (power threads). Common practice, no source.
+    tool_side_clearance_deg: float = 15.0

@@ -113,3 +113,12 @@ def test_bad_input_exits_2_with_one_line(capsys, argv, words):
     lines = err.strip().splitlines()
     assert len(lines) == 1 and lines[0].startswith("shopterm: ")
     assert words in lines[0]
+
+
+def test_crest_flat_option(capsys):
+    # ISO 68-1: a 60° bolt's crest flat is P/8 (0.375 mm at P 3); the option reaches the core
+    data = run_json(capsys, "--major", "23.95", "--pitch", "3", "--crest-flat", "0.4")
+    assert data["candidates"][0]["designation"] == "M24x3"
+    assert "crest flat 0.4 fits a crest flat of 0.375" in data["candidates"][0]["why"]
+    code, _out, err = run(capsys, "--major", "23.95", "--pitch", "3", "--crest-flat", "-1")
+    assert code != 0 and "crest flat" in err

@@ -17,6 +17,7 @@ from shopterm.cli import main as cli_main
 from shopterm.config import (HOW_ENV, HOW_EXPLICIT, HOW_SAMPLE, HOW_USER, ConfigError,
                              check_config_command, find_config, key_lines, load_config,
                              read_config_text)
+from shopterm.lathe.machine import ToolTip
 from shopterm.resources import bundled_themes_dir, sample_config_path
 
 SAMPLE = sample_config_path().read_text(encoding="utf-8")
@@ -116,6 +117,12 @@ def test_config_module_does_not_import_textual():
      == pytest.approx(float(INCH / 1000) / 2)),
     ('nose_radius = "0.004 in"', 'flat = "0,2 mm"',
      lambda c: (c.shop.tool.kind, c.shop.tool.size) == ("flat", pytest.approx(0.2))),
+    # the tool's side clearance: optional, 15 degrees when left out (common practice, no source)
+    ("side_clearance = 15\n", "side_clearance = 12.5\n",
+     lambda c: c.shop.tool_side_clearance_deg == 12.5 and c.shop.tool.kind == "radius"),
+    ("side_clearance = 15\n", "", lambda c: c.shop.tool_side_clearance_deg == 15.0),
+    ('nose_radius = "0.004 in"', "", lambda c: c.shop.tool == ToolTip("radius", 0.1)
+     and c.shop.tool_side_clearance_deg == 15),
     ('fixed_ratio = "1/1"', 'fixed_ratio = "40:127"', lambda c: c.lathe.fixed_ratio
      == Fraction(40, 127)),
     ('# [gearbox]\n# "A1" = "1/2"\n# "A2" = "4/7"',
@@ -201,10 +208,14 @@ BAD = [
      "micrometer.resolution", 'resolution = "0 in"'),
     ("bad ratio", 'fixed_ratio = "1/1"', 'fixed_ratio = "1/0"', "gear_train.fixed_ratio",
      "fixed_ratio"),
-    ("negative clearance", "clearance = 15", "clearance = -1", "gear_train.clearance",
+    ("negative clearance", "\nclearance = 15", "\nclearance = -1", "gear_train.clearance",
      "clearance = -1"),
     ("both tool tips", 'nose_radius = "0.004 in"', 'nose_radius = "0.004 in"\nflat = "0.1 mm"',
      "tool", "[tool]"),
+    ("side clearance in quotes", "side_clearance = 15", 'side_clearance = "15 deg"',
+     "tool.side_clearance", "side_clearance"),
+    ("side clearance too large", "side_clearance = 15", "side_clearance = 50",
+     "tool.side_clearance", "side_clearance = 50"),
     ("empty lathe name", 'name = "Pellingham 260 (demo)"', 'name = " "', "lathe.name", 'name = " "'),
     ("zero spindle gear", "spindle_gear = 60 ", "spindle_gear = 0 ", "indexing.spindle_gear",
      "spindle_gear = 0"),

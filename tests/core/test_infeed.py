@@ -77,7 +77,8 @@ def test_angle_override_and_warning():
     (dict(method="flank", form_angle_deg=60, angle_deg=95), "cannot feed"),
     (dict(method="radial", form_angle_deg=60, angle_deg=29.5), "Leave the angle out"),
     (dict(method="modified", form_angle_deg=60, offset_deg=40), "offset"),
-    (dict(method="flank", form_angle_deg=0), "form angle"),
+    (dict(method="flank", form_angle_deg=0), "square thread"),   # 0°: parallel flanks
+    (dict(method="flank", form_angle_deg=-5), "form angle"),
 ])
 def test_errors(kwargs, msg):
     with pytest.raises(InvalidEntry, match=msg):

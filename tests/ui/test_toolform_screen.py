@@ -68,3 +68,36 @@ async def test_interference_marked_for_a_big_radius(make_app):
         await pilot.press("1", *[("full_stop" if c == "." else c) for c in smaller], "enter")
         text = screen_text(app)
         assert "Interference" not in text and "Clear by" in text
+
+
+@pytest.fixture
+def power_family(monkeypatch):
+    """Hand-made trapezoidal/Acme threads in the registry until their families land."""
+    from tests.core import power_threads
+    power_threads.register(monkeypatch)
+    return power_threads
+
+
+async def test_power_thread_side_clearances_beside_the_picture(make_app, power_family):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        spec = power_family.tr(24, 5, starts=2).spec            # Tr24x10(P5)
+        app.thread_chosen(spec)
+        app.goto("toolform")
+        await pilot.pause()
+        # the config's tip is a radius: refused with the reason and the keys to change it
+        assert "flat root" in screen_text(app) and "Press 2 for a flat tip" in screen_text(app)
+        await pilot.press("2")
+        # 0.0667 in = 1.694 mm (the display is in inches), just under the ISO 2904 root width
+        await pilot.press("1", "0", "full_stop", "0", "6", "6", "7", "enter")
+        text = screen_text(app)
+        lines = screen_lines(app)
+        assert len(lines) == 24 and not missing_glyphs(text)
+        # computed: helix atan(10 / (π·18.5)) = 9.76° at d3 (ISO 2904), + 3° working clearance
+        assert "minor 9.76°" in text and "clearance 12.8°" in text
+        assert "Root flat: standard" in text and "verdict: OK" in text
+        assert "flat 0.0667 in" in text
+        # a flat wider than the groove at d3 is refused with the reason, the entry kept
+        await pilot.press("1", "0", "full_stop", "0", "9", "8", "4", "enter")   # 2.5 mm
+        assert "wider than the groove" in screen_text(app)
+        assert app.screen.query_one("#tf-size").value == "0.0984"

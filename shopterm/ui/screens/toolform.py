@@ -1,5 +1,7 @@
 """The tool form: the thread this tip cuts against its mating thread, drawn in console glyphs,
-with the interference, the largest clearing radius and the root-rule verdicts."""
+with the interference, the largest clearing radius and the root-rule verdicts. For a power
+thread (trapezoidal, Acme) the flat-nosed tool's helix angles and side clearances stand beside
+the picture (``shopterm.cutting.tool.power_tool``)."""
 
 from __future__ import annotations
 
@@ -8,7 +10,8 @@ from textual.app import ComposeResult
 from textual.containers import Horizontal
 from textual.widgets import Static
 
-from shopterm.cutting.tool import BOLT, BOTH, NUT, PITCH_LINE, check_tool
+from shopterm.cutting.tool import BOLT, BOTH, NUT, PITCH_LINE, check_tool, power_tool
+from shopterm.cutting.wires import is_power_form
 from shopterm.errors import ShoptermError
 from shopterm.lathe.machine import ToolTip
 from shopterm.standards import limits as thread_limits
@@ -31,7 +34,9 @@ class ToolFormScreen(ShopScreen):
     DEFAULT_CSS = """
     ToolFormScreen { overflow: hidden; }
     ToolFormScreen #tf-head { height: 1; padding: 0 1; text-style: bold; }
-    ToolFormScreen #tf-picture { height: auto; padding: 0 1; }
+    ToolFormScreen #tf-art { height: auto; }
+    ToolFormScreen #tf-picture { height: auto; width: 1fr; padding: 0 1; }
+    ToolFormScreen #tf-side { height: auto; width: auto; padding: 0 1 0 0; display: none; }
     ToolFormScreen #tf-numbers { height: auto; padding: 0 1; }
     ToolFormScreen #tf-verdicts { height: auto; padding: 0 1; }
     ToolFormScreen #tf-row { height: 1; padding: 0 1; }
@@ -45,7 +50,9 @@ class ToolFormScreen(ShopScreen):
 
     def compose_body(self) -> ComposeResult:
         yield Static("", id="tf-head")
-        yield Static("", id="tf-picture")
+        with Horizontal(id="tf-art"):
+            yield Static("", id="tf-picture")
+            yield Static("", id="tf-side")
         yield Static("", id="tf-numbers")
         yield Static("", id="tf-verdicts")
         with Horizontal(id="tf-row"):
@@ -80,25 +87,42 @@ class ToolFormScreen(ShopScreen):
             head.update("Choose a thread first: * then the thread screen.")
             for sel in ("#tf-picture", "#tf-numbers", "#tf-verdicts"):
                 self.query_one(sel, Static).update("")
+            self.query_one("#tf-side").display = False
             return
         tip, od, source = tool_in_use(app)
         self.tip = tip
         what = "flat" if tip.kind == "flat" else "nose radius"
         head.update(f"{app.spec.designation} {app.spec.kind} · {what} {self.L(tip.size)}"
                     f" ({tip.size:.3f} mm) · from {source}")
+        side = self.query_one("#tf-side", Static)
+        power = None
         try:
             lim = thread_limits(app.spec)
+            if is_power_form(app.spec.form):
+                power = power_tool(lim, tip,
+                                   max_side_clearance_deg=app.shop.tool_side_clearance_deg)
             check = check_tool(lim, tip, turned_diameter=od)
         except ShoptermError as exc:
             self.check = None
+            side.display = False
             self.query_one("#tf-picture", Static).update("")
             self.query_one("#tf-numbers", Static).update("")
-            self.query_one("#tf-verdicts", Static).update(
-                Text(f"{exc} Press 1 to enter another tip size.", style="bold"))
+            hint = ("Press 2 for a flat tip, then 1 for its width."
+                    if is_power_form(app.spec.form) and tip.kind == "radius"
+                    else "Press 1 to enter another tip size.")
+            self.query_one("#tf-verdicts", Static).update(Text(f"{exc} {hint}", style="bold"))
             return
         self.check = check
         width = max(20, (self.app.size.width or 80) - 2)
-        verdicts = wrap_lines(check.messages, width)
+        if power is not None:
+            side_lines = power.lines(app.shop.display_units)
+            side.update("\n".join(side_lines))
+            side.display = True
+            width = max(20, width - max(len(t) for t in side_lines) - 1)
+        else:
+            side.display = False
+        verdicts = wrap_lines(check.messages + (power.notes if power else ()),
+                              max(20, (self.app.size.width or 80) - 2))
         editing = self.query_one("#tf-row").display
         rows = (self.app.size.height or 24) - 2 - 1 - 3 - len(verdicts) - 1 - (1 if editing else 0)
         pic_h = max(3, min(rows, 16))
@@ -110,8 +134,11 @@ class ToolFormScreen(ShopScreen):
                 art.append(ch, style=styles.get(ch, ""))
             art.append("\n")
         cut = "screw" if check.picture.cut == "external" else "nut"
-        art.append(f"{BOLT} screw  {NUT} nut  {BOTH} interference  {PITCH_LINE} aim pitch "
-                   f"line  (this tip cuts the {cut})", style="dim")
+        legend = (f"{BOLT} screw  {NUT} nut  {BOTH} overlap  {PITCH_LINE} pitch line"
+                  if power is not None else
+                  f"{BOLT} screw  {NUT} nut  {BOTH} interference  {PITCH_LINE} aim pitch "
+                  f"line  (this tip cuts the {cut})")
+        art.append(legend, style="dim")
         self.query_one("#tf-picture", Static).update(art)
         nums = Text(no_wrap=True, overflow="ellipsis")
         if check.interference > 0:
@@ -120,15 +147,12 @@ class ToolFormScreen(ShopScreen):
         else:
             nums.append(f"Clear by {self.L(check.clearance)} "
                         f"({check.clearance:.3f} mm) on radius", style="bold")
-        largest = check.largest_clear_radius
-        nums.append(" · largest clearing radius "
-                    + (f"{self.L(largest)} ({largest:.3f} mm)" if largest is not None else "—"))
-        lo, hi = check.root_radius_min, check.root_radius_max
-        rule = ("none for this thread" if lo is None and hi is None else
-                f"{self.L(lo)} to {self.L(hi)}" if lo is not None and hi is not None else
-                f"at least {self.L(lo)}" if lo is not None else f"at most {self.L(hi)}")
-        nums.append(f"\nRoot radius rule: {rule} · verdict: "
-                    + ("OK" if check.ok else "FAILS"), style="")
+        verdict = " · verdict: " + ("OK" if check.ok else "FAILS")
+        if power is not None:
+            nums.append(f"\nRoot flat: standard {self.L(power.standard_flat)} "
+                        f"({power.standard_flat:.3f} mm)" + verdict)
+        else:
+            self.radius_numbers(nums, check, verdict)
         self.query_one("#tf-numbers", Static).update(nums)
         out = Text()
         failing = False
@@ -139,6 +163,17 @@ class ToolFormScreen(ShopScreen):
                 out.append("\n")
             out.append(line, style="bold red" if failing else "")
         self.query_one("#tf-verdicts", Static).update(out)
+
+    def radius_numbers(self, nums: Text, check, verdict: str) -> None:
+        """Add the largest clearing radius and the root-radius rule (the V-threads)."""
+        largest = check.largest_clear_radius
+        nums.append(" · largest clearing radius "
+                    + (f"{self.L(largest)} ({largest:.3f} mm)" if largest is not None else "—"))
+        lo, hi = check.root_radius_min, check.root_radius_max
+        rule = ("none for this thread" if lo is None and hi is None else
+                f"{self.L(lo)} to {self.L(hi)}" if lo is not None and hi is not None else
+                f"at least {self.L(lo)}" if lo is not None else f"at most {self.L(hi)}")
+        nums.append(f"\nRoot radius rule: {rule}" + verdict, style="")
 
     def key_hints(self) -> list[tuple[str, str]]:
         if self.is_mounted and self.query_one("#tf-row").display:
@@ -169,7 +204,10 @@ class ToolFormScreen(ShopScreen):
         try:
             mm = parse_length(event.value, self.app.shop.display_units)
             tip = ToolTip(self.tip.kind, mm)
-            check_tool(thread_limits(self.app.spec), tip)    # a tip too big says so here
+            lim = thread_limits(self.app.spec)
+            if is_power_form(self.app.spec.form):         # a flat that undercuts says so here
+                power_tool(lim, tip, max_side_clearance_deg=self.app.shop.tool_side_clearance_deg)
+            check_tool(lim, tip)    # a tip too big says so here
         except ShoptermError as exc:
             self.say(str(exc), error=True)             # the typed text stays to correct
             return
