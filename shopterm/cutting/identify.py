@@ -524,8 +524,8 @@ def _taper_check(m: Measured, lim: Limits) -> Check | None:
     k, got = _taper_k(lim), m.taper.per_unit
     z = (got - k) / m.taper.sigma
     own = f"tapered 1 in {1 / k:g}" if k else "parallel"
-    text = (f"the diameter changes {_mm(abs(m.taper.second - m.taper.first))} over "
-            f"{_mm(m.taper.distance)}: " + ("a " + own + " thread" if abs(z) < 1 else
+    text = (f"the diameter changes {_mm(abs(m.taper.second - m.taper.first))} mm over "
+            f"{_mm(m.taper.distance)} mm: " + ("a " + own + " thread" if abs(z) < 1 else
                                             f"but this thread is {own}"))
     return Check("taper", z, text)
 
