@@ -44,6 +44,11 @@ PRESSURE_CAUTION = ("A pressure fitting's fitness for service is not settled by 
                     "follow the codes that apply and the fitting maker's instructions.")
 
 
+def _number(value) -> bool:
+    return not isinstance(value, bool) and isinstance(value, (int, float)) \
+        and math.isfinite(value)
+
+
 def taper_of(limits: Limits) -> Taper:
     """Return the limits' taper; raise ``InvalidEntry`` for a parallel thread."""
     if limits.taper is None:
@@ -53,8 +58,7 @@ def taper_of(limits: Limits) -> Taper:
 
 
 def _distance(taper: Taper, distance: float, length: float | None) -> float:
-    if isinstance(distance, bool) or not isinstance(distance, (int, float)) \
-            or not math.isfinite(distance) or distance < 0:
+    if not _number(distance) or distance < 0:
         raise InvalidEntry("Give the distance from the small end of the thread, 0 or more.")
     longest = length if length is not None else 2 * taper.gauge_plane_from_end
     if distance > longest + 1e-9:
@@ -126,8 +130,7 @@ def taper_blank(limits: Limits, unit: Unit = "mm") -> TaperBlank:
 def blank_at_gauge_plane(limits: Limits, measured: float, distance: float) -> float:
     """Return the blank's diameter at the gauge plane from one ``measured`` [mm] taken
     ``distance`` [mm] from the small end."""
-    if isinstance(measured, bool) or not isinstance(measured, (int, float)) \
-            or not math.isfinite(measured) or measured <= 0:
+    if not _number(measured) or measured <= 0:
         raise InvalidEntry("Enter the diameter measured on the turned taper (greater than 0).")
     return float(measured) + shift_to_gauge_plane(limits, distance)
 
@@ -190,8 +193,7 @@ def measure_tapered(limits: Limits, wire: float, readings: Sequence[float], dist
     factor = math.cos(math.radians(taper.half_angle_deg))
     typed = tuple(readings)
     for m in typed:
-        if isinstance(m, bool) or not isinstance(m, (int, float)) or not math.isfinite(m) \
-                or m <= wire:
+        if not _number(m) or m <= wire:
             raise InvalidEntry("A reading over wires must be larger than the wire: check it.")
     square = [(m - wire) / factor + wire for m in typed]
     aim = None if aim_pd is None else aim_pd - shift
@@ -269,16 +271,14 @@ def hand_tight_check(limits: Limits, *, stand_off: float | None = None,
     expected = taper.gauge_plane_from_end / pitch
     gauge_len = taper.gauge_plane_from_end
     if turns is not None:
-        if isinstance(turns, bool) or not isinstance(turns, (int, float)) \
-                or not math.isfinite(turns) or turns < 0:
+        if not _number(turns) or turns < 0:
             raise InvalidEntry("The turns made by hand are a number, 0 or more.")
         if turns > 2 * expected + 2:
             raise InvalidEntry(f"{turns:g} turns by hand is far beyond the {expected:.1f} "
                                "expected: the thread is far undersize, or the count is wrong.")
         s = (expected - turns) * pitch
     else:
-        if isinstance(stand_off, bool) or not isinstance(stand_off, (int, float)) \
-                or not math.isfinite(stand_off):
+        if not _number(stand_off):
             raise InvalidEntry("The stand-off is a length: how far short of flush it stopped.")
         s = float(stand_off)
         if abs(s) > gauge_len:
