@@ -727,7 +727,8 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             (Expected(a.designation, f"diameter change over {_mm(d)} mm", ka * d, ka * d),
              Expected(b.designation, f"diameter change over {_mm(d)} mm", kb * d, kb * d))))
     if abs(sa.pitch - sb.pitch) <= 1e-9 and sa.form.angle_deg == sb.form.angle_deg \
-            and not (ka or kb):
+            and abs(ka - kb) <= 1e-9:
+        la, lb = _along_taper(la), _along_taper(lb)     # tapered: anywhere on the thread
         if m.kind == "external":
             ra, rb = (la.major_min, la.major_max), (lb.major_min, lb.major_max)
             q = "major diameter"

@@ -271,3 +271,25 @@ def test_real_r_half_blank_and_plane():
     assert r.taper.per_unit_on_diameter == pytest.approx(K)
     assert tt.taper_blank(r).at_gauge_plane == pytest.approx(R12_GAUGE_D, abs=1e-3)
     assert tt.limits_at(r, 0.0).basic_pd == pytest.approx(19.2805, abs=1e-3)
+
+
+def test_two_tapered_sizes_told_apart_by_diameter_along_the_thread():
+    from dataclasses import replace
+    from shopterm.standards.spec import Taper
+    # R3/4 (ISO 7-1 table 1, from memory): 14 tpi, gauge diameter 26.441, pitch diameter
+    # 25.279, minor 24.117, gauge length 9.5 ± 1.8, useful thread 14.5
+    r34 = replace(R, spec=R.spec.with_(size="R3/4", major=26.441), basic_major=26.441,
+                  basic_pd=25.279, basic_minor=24.117, major_max=26.441 + 1.8 / 16,
+                  major_min=26.441 - 1.8 / 16, pd_max=25.279 + 1.8 / 16,
+                  pd_min=25.279 - 1.8 / 16, minor_max=24.117 + 1.8 / 16,
+                  minor_min=24.117 - 1.8 / 16,
+                  taper=Taper(K, 9.5, 1.8, gauge_diameter=26.441, L2=14.5))
+    ident = identify(tpi=14, threads=[R, r34])
+    tell = [t for t in ident.to_tell_apart if t.measure == "diameter"]
+    assert tell and not any(t.measure == "taper" for t in ident.to_tell_apart)
+    by_size = {e.designation: (e.low, e.high) for e in tell[0].expected}
+    # from the small end to the end of the useful thread (computed from the 1:16 taper):
+    # R1/2 20.955 − 1.8/16 − 8.2/16 .. 20.955 + 1.8/16 + 5/16
+    lows = sorted(v[0] for v in by_size.values())
+    assert lows[0] == pytest.approx(20.955 - (1.8 + 8.2) / 16)
+    assert lows[1] == pytest.approx(26.441 - (1.8 + 9.5) / 16)
