@@ -1,12 +1,17 @@
 """Cutting and measuring a tapered thread (ISO 7-1 R/Rc, ASME B1.20.1 NPT) on a manual lathe.
 
-A tapered thread's ``Limits`` give its diameters at the gauge plane, ``Limits.taper.
-gauge_plane_from_end`` from the small end; a diameter ``z`` from the small end is smaller by
-k × (gauge_plane_from_end − z), k the taper on diameter (1/16). Distances here are always from
-the small end of the thread (for an internal thread: its inner end).
+A tapered thread's ``Limits`` give its diameters at the gauge plane; k is the taper on
+diameter (1/16). Distances along the thread are measured from the end a person measures from:
+
+- external: from the small end (the end of the pipe); the gauge plane lies
+  ``taper.gauge_plane_from_end`` from it, and a diameter ``z`` from the small end is smaller by
+  k × (gauge_plane_from_end − z);
+- internal: from the face of the fitting, inward; an internal taper thread is gauged at its
+  face (ISO 7-1: gauge plane at the face, ±T2/2; ASME B1.20.1: the L1 plug gauge flush with
+  the face ±1 turn; both from memory), and a diameter ``z`` in from the face is smaller by k × z.
 
 - The blank is turned to the taper first, with the same set-over or attachment as the thread:
-  ``taper_blank`` says what it should measure at the small end and at the gauge plane.
+  ``taper_blank`` says what it should measure at the end and at the gauge plane.
 - With the taper made by the set-over or the attachment the tool moves square to the work's
   axis, so a feed deepens the thread the same at every plane: the depth is planned at the
   gauge plane (``tapered_tool_depth``) and a reading anywhere tells the feed left.
@@ -57,26 +62,41 @@ def taper_of(limits: Limits) -> Taper:
     return limits.taper
 
 
-def _distance(taper: Taper, distance: float, length: float | None) -> float:
-    if not _number(distance) or distance < 0:
-        raise InvalidEntry("Give the distance from the small end of the thread, 0 or more.")
-    longest = length if length is not None else 2 * taper.gauge_plane_from_end
-    if distance > longest + 1e-9:
-        raise InvalidEntry(f"{distance:.2f} mm from the small end is beyond the thread "
-                           f"({longest:.2f} mm long): check the distance and its unit.")
-    return float(distance)
+def measured_from(limits: Limits) -> str:
+    """Return the end distances are measured from: 'the small end' or 'the face' (internal)."""
+    return "the small end" if limits.spec.is_external else "the face"
+
+
+def gauge_plane_at(limits: Limits) -> float:
+    """Return the gauge plane's distance [mm] from ``measured_from``: external
+    ``gauge_plane_from_end``, internal 0 (the face)."""
+    return taper_of(limits).gauge_plane_from_end if limits.spec.is_external else 0.0
+
+
+def _thread_length(taper: Taper) -> float:
+    return taper.L2 if taper.L2 is not None else 2 * taper.gauge_plane_from_end
 
 
 def shift_to_gauge_plane(limits: Limits, distance: float) -> float:
-    """Return what to add to a diameter taken ``distance`` [mm] from the small end to get the
-    same diameter at the gauge plane: k × (gauge_plane_from_end − distance) [mm]."""
+    """Return what to add to a diameter taken ``distance`` [mm] from the small end (external)
+    or in from the face (internal) to get the same diameter at the gauge plane [mm]:
+    k × (gauge_plane_from_end − distance) external, k × distance internal."""
     taper = taper_of(limits)
-    z = _distance(taper, distance, taper.L2)
-    return taper.diameter_shift(taper.gauge_plane_from_end - z)
+    where = measured_from(limits)
+    if not _number(distance) or distance < 0:
+        raise InvalidEntry(f"Give the distance from {where} of the thread, 0 or more.")
+    longest = _thread_length(taper)
+    if distance > longest + 1e-9:
+        raise InvalidEntry(f"{distance:.2f} mm from {where} is beyond the thread "
+                           f"({longest:.2f} mm long): check the distance and its unit.")
+    if limits.spec.is_external:
+        return taper.diameter_shift(taper.gauge_plane_from_end - distance)
+    return taper.diameter_shift(distance)
 
 
 def limits_at(limits: Limits, distance: float) -> Limits:
-    """Return the limits moved along the taper to the plane ``distance`` [mm] from the small end.
+    """Return the limits moved along the taper to the plane ``distance`` [mm] from the small
+    end (internal: in from the face).
 
     Every diameter is smaller by ``shift_to_gauge_plane``; the taper is kept.
     """
@@ -95,17 +115,18 @@ class TaperBlank:
 
     internal: bool
     k: float
-    gauge_plane_from_end: float
-    at_small_end: float
+    measured_from: str             # "the small end" (external) or "the face" (internal)
+    gauge_plane_at: float          # distance of the gauge plane from that end
+    at_end: float                  # diameter at that end
     at_gauge_plane: float
-    at_thread_end: float | None    # at the end of the useful thread (L2), where known
+    at_far_end: float | None       # at the far end of the useful thread (L2 from that end)
     thread_length: float | None
     text: str
 
 
 def taper_blank(limits: Limits, unit: Unit = "mm") -> TaperBlank:
     """Return the blank's crest diameter (external: major; internal: the bore, minor) at the
-    small end, the gauge plane and the end of the useful thread.
+    end it is measured from, at the gauge plane, and at the far end of the useful thread.
 
     External: the gauge diameter where the standard gives one (ISO 7-1), else the basic major
     at the gauge plane; internal: the basic minor there. unit: for the text only.
@@ -115,21 +136,26 @@ def taper_blank(limits: Limits, unit: Unit = "mm") -> TaperBlank:
     internal = not limits.spec.is_external
     gauge = limits.basic_minor if internal else (
         taper.gauge_diameter if taper.gauge_diameter is not None else limits.basic_major)
-    small = gauge - taper.diameter_shift(taper.gauge_plane_from_end)
-    end = None if taper.L2 is None else gauge + taper.diameter_shift(
-        taper.L2 - taper.gauge_plane_from_end)
+    at = gauge_plane_at(limits)
+    end = gauge - shift_to_gauge_plane(limits, 0.0)
+    far = None if taper.L2 is None else gauge - shift_to_gauge_plane(limits, taper.L2)
     f = lambda v: format_length(v, unit, 0.001 if unit == "mm" else 0.0001)   # noqa: E731
-    what = "bore" if internal else "blank"
-    text = (f"Turn the {what} to the taper first, with the same set-over or attachment. "
-            f"It should measure {f(small)} at the small end and {f(gauge)} "
-            f"{f(taper.gauge_plane_from_end)} from it (the gauge plane).")
-    return TaperBlank(internal, taper.per_unit_on_diameter, taper.gauge_plane_from_end, small,
-                      gauge, end, taper.L2, text)
+    where = measured_from(limits)
+    if internal:
+        text = (f"Bore the taper first, with the same set-over or attachment. It should "
+                f"measure {f(gauge)} at the face (the gauge plane)"
+                + (f" and {f(far)} {f(taper.L2)} in from it." if far is not None else "."))
+    else:
+        text = (f"Turn the blank to the taper first, with the same set-over or attachment. "
+                f"It should measure {f(end)} at the small end and {f(gauge)} {f(at)} from it "
+                "(the gauge plane).")
+    return TaperBlank(internal, taper.per_unit_on_diameter, where, at, end, gauge, far,
+                      taper.L2, text)
 
 
 def blank_at_gauge_plane(limits: Limits, measured: float, distance: float) -> float:
     """Return the blank's diameter at the gauge plane from one ``measured`` [mm] taken
-    ``distance`` [mm] from the small end."""
+    ``distance`` [mm] from the small end (internal: in from the face)."""
     if not _number(measured) or measured <= 0:
         raise InvalidEntry("Enter the diameter measured on the turned taper (greater than 0).")
     return float(measured) + shift_to_gauge_plane(limits, distance)
@@ -139,7 +165,8 @@ def tapered_tool_depth(limits: Limits, measured: float, distance: float, tip: To
                        aim_pd: float | None = None) -> ToolDepth:
     """Return the total radial infeed for a tapered thread, planned at the gauge plane.
 
-    measured [mm]: the turned taper's diameter ``distance`` [mm] from the small end; tip;
+    measured [mm]: the turned taper's diameter ``distance`` [mm] from the small end
+    (internal: the bore's, in from the face); tip;
     aim_pd [mm] at the gauge plane (default the middle of the band). The set-over or the
     attachment makes the taper, so the same infeed cuts the same depth at every plane.
     References: ``cutting.tool.tool_depth``.

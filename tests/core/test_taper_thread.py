@@ -79,13 +79,26 @@ def test_parallel_thread_has_no_plane():
 def test_blank_at_small_end_and_gauge_plane():
     b = tt.taper_blank(R)
     assert b.at_gauge_plane == pytest.approx(R12_GAUGE_D)        # ISO 7-1 gauge diameter
-    assert b.at_small_end == pytest.approx(20.955 - 8.2 / 16)     # computed: 20.4425
-    assert b.at_thread_end == pytest.approx(20.955 + (13.2 - 8.2) / 16)   # computed: 21.2675
+    assert b.measured_from == "the small end" and b.gauge_plane_at == 8.2
+    assert b.at_end == pytest.approx(20.955 - 8.2 / 16)            # computed: 20.4425
+    assert b.at_far_end == pytest.approx(20.955 + (13.2 - 8.2) / 16)   # computed: 21.2675
     assert "20.443 mm at the small end" in b.text and "8.200 mm from it" in b.text
-    bore = tt.taper_blank(pipe_limits("R1/2", "internal"))
-    assert bore.internal and bore.at_gauge_plane == pytest.approx(18.631)   # ISO 7-1 minor
     # inverse: a blank measured at the small end carried back to the gauge plane
-    assert tt.blank_at_gauge_plane(R, b.at_small_end, 0.0) == pytest.approx(R12_GAUGE_D)
+    assert tt.blank_at_gauge_plane(R, b.at_end, 0.0) == pytest.approx(R12_GAUGE_D)
+
+
+def test_internal_taper_is_gauged_at_the_face():
+    rc = pipe_limits("R1/2", "internal")
+    bore = tt.taper_blank(rc)
+    # ISO 7-1 minor 18.631 at the face (gauge plane at the face of an Rc, from memory)
+    assert bore.internal and bore.measured_from == "the face" and bore.gauge_plane_at == 0
+    assert bore.at_end == pytest.approx(18.631) and bore.at_gauge_plane == pytest.approx(18.631)
+    assert bore.at_far_end == pytest.approx(18.631 - 13.2 / 16)   # computed from the 1:16 taper
+    assert "at the face" in bore.text
+    # a bore measured 4 mm in is 4/16 smaller than at the face (computed)
+    assert tt.blank_at_gauge_plane(rc, 18.631 - 0.25, 4.0) == pytest.approx(18.631)
+    with pytest.raises(InvalidEntry, match="from the face"):
+        tt.limits_at(rc, -1.0)
     with pytest.raises(InvalidEntry, match="greater than 0"):
         tt.blank_at_gauge_plane(R, -20.0, 0.0)
 
