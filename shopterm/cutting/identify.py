@@ -393,12 +393,16 @@ def _taper_k(lim: Limits) -> float:
 
 
 def _along_taper(lim: Limits) -> Limits:
-    """Return a tapered thread's bands widened from its small end to its useful length's end."""
+    """Return a tapered thread's bands widened over its thread: external from its small end to
+    its useful length's end; internal from its face (where it is gauged) to its useful length."""
     t = lim.taper
     if t is None:
         return lim
-    down = t.diameter_shift(t.gauge_plane_from_end)
-    up = t.diameter_shift(max((t.L2 or 0.0) - t.gauge_plane_from_end, 0.0))
+    if lim.spec.is_external:
+        down = t.diameter_shift(t.gauge_plane_from_end)
+        up = t.diameter_shift(max((t.L2 or 0.0) - t.gauge_plane_from_end, 0.0))
+    else:
+        down, up = t.diameter_shift(t.L2 or t.gauge_plane_from_end), 0.0
     basic = {"major": lim.basic_major, "pd": lim.basic_pd, "minor": lim.basic_minor}
     out = {}
     for d, b in basic.items():

@@ -306,3 +306,25 @@ def test_two_tapered_sizes_told_apart_by_diameter_along_the_thread():
     lows = sorted(v[0] for v in by_size.values())
     assert lows[0] == pytest.approx(20.955 - (1.8 + 8.2) / 16)
     assert lows[1] == pytest.approx(26.441 - (1.8 + 9.5) / 16)
+
+
+def test_internal_pipe_thread_identified_by_its_minor_along_the_thread():
+    rc, rp = pipe_limits("R1/2", "internal"), pipe_limits("G1/2", "internal")
+    # a bore of 18.3 mm is 0.33 under the Rc1/2 minor at the face, inside its thread
+    # (18.631 − 13.2/16 = 17.806 at the far end; computed from ISO 7-1, from memory)
+    ident = identify(minor=18.3, tpi=14, taper=(18.3, 17.8, 8.0), kind="internal",
+                     threads=[rc, rp])
+    assert ident.candidates[0].limits is rc
+    assert "within" in ident.candidates[0].why
+
+
+def test_pass_plan_from_the_gauge_plane_depth():
+    from shopterm.cutting.infeed import infeed_method
+    from shopterm.cutting.plan import make_plan
+    # blank measured 5 mm from the small end: 20.955 − 3.2/16 (computed from the 1:16 taper)
+    depth = tt.tapered_tool_depth(R, 20.755, 5.0, ToolTip("radius", 0.2))
+    plan = make_plan(depth.total_radial, infeed_method("radial", 55.0), lathe=LATHE,
+                     passes=6)
+    # the plan ends at the gauge-plane depth, to the nearest dial division (0.01 mm radial)
+    assert plan.set_total_radial == pytest.approx(depth.total_radial, abs=0.005 + 1e-9)
+    assert depth.turned_diameter == pytest.approx(R12_GAUGE_D)
