@@ -38,8 +38,9 @@ COMPOUND_NOTE = ("The compound, fed by hand, turns the blank's taper; it cannot 
 
 #: Common practice, no source.
 SET_OVER_NOTE = ("Check the set-over with a dial indicator on the tailstock barrel; the "
-                 "tailstock's own scale is only a guide. Put the tailstock back in line after "
-                 "the job.")
+                 "tailstock's own scale is only a guide. The centres now bear on one edge of "
+                 "the centre holes: keep them lubricated and not too tight. Put the tailstock "
+                 "back in line after the job.")
 
 _UNIT_NAMES = {"deg": "°", "in_per_ft": " in/ft", "mm_per_100mm": " mm/100 mm"}
 
