@@ -9,7 +9,7 @@ import sys
 from shopterm import __version__
 
 #: ``shopterm calc`` subcommands, each in ``shopterm/commands/calc_<name>.py``.
-CALC_COMMANDS = ("limits", "wires", "passes", "gears", "dial", "starts", "identify")
+CALC_COMMANDS = ("limits", "wires", "passes", "gears", "dial", "starts", "identify", "taper")
 
 
 def _load(module: str):

@@ -25,8 +25,9 @@ from pathlib import Path
 from typing import Any
 
 from shopterm.errors import ConfigError, InvalidEntry
-from shopterm.lathe.machine import (Dial, GearboxPosition, Lathe, Leadscrew, Shop, ThreadDial,
-                                    ToolTip, WireSize)
+from shopterm.lathe.machine import (ATTACHMENT_SCALES, Dial, GearboxPosition, Lathe, Leadscrew,
+                                    Shop, Tailstock, TaperAttachment, ThreadDial, ToolTip,
+                                    WireSize)
 from shopterm.resources import sample_config_path
 from shopterm.units import parse_number, parse_unit, split_unit, to_mm
 
@@ -400,6 +401,7 @@ class _Reader:
 
 _TOP = ("display", "lathe", "leadscrew", "gear_train", "change_gears", "gearbox", "cross_slide",
         "compound", "thread_dial", "wires", "micrometer", "tool", "indexing")
+_TOP += ("tailstock", "taper_attachment")     # the taper set-up (``_taper_kit``)
 
 
 def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
@@ -468,7 +470,8 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     lathe = Lathe(name=name, leadscrew=leadscrew, cross_dial=cross, compound_dial=compound,
                   compound_zero=zero, gears=gears, fixed_ratio=fixed_ratio, gearbox=gearbox,
                   thread_dial=thread_dial, clearance_margin=clearance,
-                  spindle_gear=spindle_gear, faceplate_slots=slots)
+                  spindle_gear=spindle_gear, faceplate_slots=slots,
+                  **_taper_kit(r, data, compound_t))
     shop_kw: dict[str, Any] = {"display_units": units, "theme": theme, "wires": wires}
     if resolution is not None:
         shop_kw["micrometer_resolution"] = resolution
@@ -539,7 +542,7 @@ def _gearbox(r: _Reader, t: dict | None) -> tuple[GearboxPosition, ...]:
 
 def _dial(r: _Reader, w: Where, t: dict, cross_slide: bool) -> Dial:
     allowed = ("division", "divisions", "reads") if cross_slide else \
-        ("division", "divisions", "angle_zero")
+        ("division", "divisions", "angle_zero", "travel")
     r.keys(w, t, allowed)
     value, unit = r.length(w, t, "division", required=True, what="value of one division",
                            example='"0.001 in"')
@@ -591,6 +594,40 @@ def _wires(r: _Reader, data: dict) -> tuple[WireSize, ...]:
         label = r.string(w, s, "label", default=str(s["marked"]).strip(), example='"29 thou"')
         out.append(WireSize(marked=to_mm(*marked), measured=measured, label=label))
     return tuple(out)
+
+
+def _taper_kit(r: _Reader, data: dict, compound_t: dict) -> dict[str, Any]:
+    """Return the Lathe's taper fields: [tailstock], [taper_attachment], compound.travel."""
+    out: dict[str, Any] = {"compound_travel": r.length_mm(
+        ("compound",), compound_t, "travel", what="compound travel", example='"2.5 in"')}
+    tail = r.table((), data, "tailstock")
+    if tail is not None:
+        w = ("tailstock",)
+        r.keys(w, tail, ("set_over_division", "max_set_over"))
+        division = r.length(w, tail, "set_over_division", what="set-over scale's division",
+                            example='"1 mm"')
+        most = r.length(w, tail, "max_set_over", what="largest set-over", example='"10 mm"')
+        unit = (division or most or (0, "mm"))[1]
+        out["tailstock"] = Tailstock(division and to_mm(*division), unit,
+                                     most and to_mm(*most))
+    att = r.table((), data, "taper_attachment")
+    if att is not None:
+        w = ("taper_attachment",)
+        r.keys(w, att, ("scale", "max_setting", "max_travel"))
+        scale = r.string(w, att, "scale", required=True, choices=ATTACHMENT_SCALES,
+                         example='"in_per_ft"')
+        most = att.get("max_setting")
+        if most is None:
+            raise r._missing(w, "max_setting", "3")
+        if isinstance(most, bool) or not isinstance(most, (int, float)) or not most > 0:
+            raise r.error(w + ("max_setting",), f"max_setting is the largest setting on the "
+                                                f"guide bar's graduation ({scale}), a number "
+                                                f"greater than zero without quotes, e.g. "
+                                                f"max_setting = 3.")
+        travel = r.length_mm(w, att, "max_travel", what="taper attachment's travel",
+                             example='"10 in"')
+        out["taper_attachment"] = TaperAttachment(scale, float(most), travel)
+    return out
 
 
 def _tool(r: _Reader, t: dict | None) -> tuple[ToolTip | None, float | None]:

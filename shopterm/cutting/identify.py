@@ -10,7 +10,12 @@ Measurements (all optional, at least one):
 - the width of the crest flat (a bolt's), which tells a trapezoidal or Acme thread (about
   0.37P) from a 60° one (P/8) and a rounded Whitworth or BA crest (none);
 - readings over wires of a bolt (wire size and reading), each giving a pitch diameter for every
-  candidate through the three-wire relation; two wire sizes together test the flank angle.
+  candidate through the three-wire relation; two wire sizes together test the flank angle;
+- a taper: the crest diameter at two places a stated distance apart. It tells a tapered pipe
+  thread (ISO 7-1 R, NPT: 1 in 16 on diameter) from a parallel one of the same size and pitch
+  (ISO 228-1 G). A tapered candidate's diameters are those at its gauge plane; a diameter
+  measured anywhere on its thread may lie from its small end to the end of its useful thread,
+  so its bands are widened by the taper over that length.
 
 Counting threads over a length. ``counted="crests"`` (the default): the count includes the
 crest at each end of the measured length, so ``n`` crests span ``n − 1`` pitches and
@@ -38,7 +43,7 @@ BS 93); three-wire relation M = E + W(1 + cosec a) − (P/2)·cot a, NBS Handboo
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import lru_cache
 from typing import Iterable, Literal, Sequence
 
@@ -95,6 +100,13 @@ CREST_FLAT_PER_P = 0.05
 WIRE_AGREEMENT = 0.015
 #: A rival scoring at least this share of the top score makes the answer ambiguous.
 AMBIGUOUS_RATIO = 0.25
+#: Calipers on two crest diameters, for a taper: the spread of the change of diameter per
+#: unit length is hypot(CALIPER, CALIPER) / distance + TAPER_FLOOR (uneven crest wear).
+#: Common practice, no source.
+TAPER_FLOOR = 0.005
+#: Where to measure a taper's two diameters apart, to tell a taper from a parallel thread [mm].
+#: Common practice, no source.
+TAPER_CHECK_DISTANCE = 10.0
 #: How many close rivals of the top candidate get a telling measurement.
 MAX_RIVALS = 5
 #: Candidates scoring below this are not listed.
@@ -150,6 +162,25 @@ class WireEntry:
 
 
 @dataclass(frozen=True)
+class TaperEntry:
+    """Two crest diameters a distance apart [mm], and the taper they give (on diameter)."""
+
+    first: float
+    second: float
+    distance: float
+
+    @property
+    def per_unit(self) -> float:
+        """Return the change of diameter per unit length (1/16 = 0.0625 for pipe tapers)."""
+        return abs(self.second - self.first) / self.distance
+
+    @property
+    def sigma(self) -> float:
+        """Return how far ``per_unit`` may plausibly stray (shop judgement, see TAPER_FLOOR)."""
+        return math.hypot(CALIPER, CALIPER) / self.distance + TAPER_FLOOR
+
+
+@dataclass(frozen=True)
 class Measured:
     """Everything measured, checked; lengths in mm, angle in degrees."""
 
@@ -161,6 +192,7 @@ class Measured:
     angle: float | None
     wires: tuple[WireEntry, ...]
     crest_flat: float | None = None   # width of a bolt's crest flat [mm]
+    taper: TaperEntry | None = None
 
     @property
     def crest(self) -> float | None:
@@ -197,7 +229,8 @@ def measured(*, major: float | None = None, minor: float | None = None,
              counted: Counted = "crests", angle: float | None = None,
              wires: Iterable[tuple[float, float]] = (), kind: Kind | None = None,
              length_uncertainty: float = LENGTH_UNCERTAINTY,
-             crest_flat: float | None = None) -> Measured:
+             crest_flat: float | None = None,
+             taper: tuple[float, float, float] | None = None) -> Measured:
     """Return the measurements checked and the pitch entries cross-compared and combined.
 
     major, minor [mm] (calipers); pitch [mm] and/or tpi [1/in] from a gauge; count with
@@ -205,7 +238,8 @@ def measured(*, major: float | None = None, minor: float | None = None,
     (wire diameter [mm], reading over wires [mm]) on a bolt; kind: 'external' or 'internal'
     (default: external when a major diameter is given, internal when only a minor);
     length_uncertainty [mm]: how well the counted length was read; crest_flat [mm]: the width
-    of a bolt's crest flat (0 for a rounded crest).
+    of a bolt's crest flat (0 for a rounded crest); taper: (crest diameter [mm], crest
+    diameter [mm], distance between them along the axis [mm]).
     Raises ``InvalidEntry`` saying what to enter instead.
     References: this module's docstring; 1 in = 25.4 mm.
     """
@@ -277,12 +311,27 @@ def measured(*, major: float | None = None, minor: float | None = None,
     if wire_list and kind == "internal":
         raise InvalidEntry("Wires measure a bolt, not a nut: for a nut, measure a bolt that "
                            "fits it well, or leave the wire readings out.")
-    if major is None and minor is None and combined is None and not wire_list:
+    taper_entry = None
+    if taper is not None:
+        try:
+            first, second, apart = taper
+        except (TypeError, ValueError):
+            raise InvalidEntry("Give a taper as two crest diameters and the distance between "
+                               "them.") from None
+        taper_entry = TaperEntry(_check_length(first, "first diameter of the taper"),
+                                 _check_length(second, "second diameter of the taper"),
+                                 _check_length(apart, "distance between the two diameters"))
+        if taper_entry.per_unit > 0.3:
+            raise InvalidEntry(f"The two diameters differ by {_mm(abs(second - first))} over "
+                               f"{_mm(apart)}: far steeper than a thread's taper (1 in 16 is "
+                               f"{_mm(apart / 16)}). Check the numbers and the distance.")
+    if major is None and minor is None and combined is None and not wire_list \
+            and taper_entry is None:
         raise InvalidEntry("Measure something first: the major diameter of a bolt or the minor "
                            "diameter of a nut with calipers, and the pitch with a gauge or by "
                            "counting threads over a length.")
     return Measured(kind, major, minor, combined, tuple(entries), angle, tuple(wire_list),
-                    crest_flat)
+                    crest_flat, taper_entry)
 
 
 # ---- candidates -------------------------------------------------------------------------------
@@ -305,6 +354,7 @@ class Candidate:
     score: float                # 0..1, 1 = every measurement where this thread puts it
     why: str
     checks: tuple[Check, ...]
+    limits: Limits | None = None   # the limits it was judged by (its gauge plane if tapered)
 
 
 @dataclass(frozen=True)
@@ -360,6 +410,30 @@ def _internal(spec: ThreadSpec) -> ThreadSpec:
 def _limits(spec: ThreadSpec, kind: Kind) -> Limits:
     from shopterm.standards import limits
     return limits(spec if kind == "external" else _internal(spec))
+
+
+def _taper_k(lim: Limits) -> float:
+    return lim.taper.per_unit_on_diameter if lim.taper is not None else 0.0
+
+
+def _along_taper(lim: Limits) -> Limits:
+    """Return a tapered thread's bands widened over its thread: external from its small end to
+    its useful length's end; internal from its face (where it is gauged) to its useful length."""
+    t = lim.taper
+    if t is None:
+        return lim
+    if lim.spec.is_external:
+        down = t.diameter_shift(t.gauge_plane_from_end)
+        up = t.diameter_shift(max((t.L2 or 0.0) - t.gauge_plane_from_end, 0.0))
+    else:
+        down, up = t.diameter_shift(t.L2 or t.gauge_plane_from_end), 0.0
+    basic = {"major": lim.basic_major, "pd": lim.basic_pd, "minor": lim.basic_minor}
+    out = {}
+    for d, b in basic.items():
+        lo, hi = getattr(lim, f"{d}_min"), getattr(lim, f"{d}_max")
+        out[f"{d}_min"] = (lo if lo is not None else b) - down
+        out[f"{d}_max"] = (hi if hi is not None else b) + up
+    return replace(lim, **out)
 
 
 def _band_z(value: float, lo: float, hi: float, below: float, above: float) -> float:
@@ -515,6 +589,18 @@ def _worn_screw_note(c: Candidate, m: Measured) -> str:
             "mate.")
 
 
+def _taper_check(m: Measured, lim: Limits) -> Check | None:
+    if m.taper is None:
+        return None
+    k, got = _taper_k(lim), m.taper.per_unit
+    z = (got - k) / m.taper.sigma
+    own = f"tapered 1 in {1 / k:g}" if k else "parallel"
+    text = (f"the diameter changes {_mm(abs(m.taper.second - m.taper.first))} mm over "
+            f"{_mm(m.taper.distance)} mm: " + ("a " + own + " thread" if abs(z) < 1 else
+                                            f"but this thread is {own}"))
+    return Check("taper", z, text)
+
+
 def _wire_pd(reading: WireEntry, spec: ThreadSpec) -> float | None:
     try:
         return pitch_diameter(reading.over_wires, reading.wire, spec.form, spec.pitch,
@@ -568,15 +654,17 @@ def _prefilter(m: Measured, spec: ThreadSpec) -> bool:
     return True
 
 
-def _evaluate(m: Measured, spec: ThreadSpec) -> Candidate:
-    lim = _limits(spec, m.kind)
+def _evaluate(m: Measured, spec: ThreadSpec, given: Limits | None = None) -> Candidate:
+    lim = given if given is not None else _limits(spec, m.kind)
+    span = _along_taper(lim)
     checks = [c for c in (_pitch_check(m, spec), _angle_check(m, spec),
-                          _crest_flat_check(m, spec), _crest_check(m, spec, lim),
-                          _root_check(m, spec, lim)) if c is not None]
-    checks.extend(_wire_checks(m, spec, lim))
+                          _crest_flat_check(m, spec), _taper_check(m, lim),
+                          _crest_check(m, spec, span), _root_check(m, spec, span))
+              if c is not None]
+    checks.extend(_wire_checks(m, spec, span))
     score = math.exp(-0.5 * math.fsum(c.z ** 2 for c in checks))
     why = "; ".join(c.text for c in checks)
-    return Candidate(lim.spec, _plain(spec), score, why, tuple(checks))
+    return Candidate(lim.spec, _plain(spec), score, why, tuple(checks), lim)
 
 
 def identify(*, major: float | None = None, minor: float | None = None,
@@ -585,23 +673,26 @@ def identify(*, major: float | None = None, minor: float | None = None,
              counted: Counted = "crests", angle: float | None = None,
              wires: Iterable[tuple[float, float]] = (), kind: Kind | None = None,
              length_uncertainty: float = LENGTH_UNCERTAINTY, limit: int = 8,
-             threads: Sequence[ThreadSpec] | None = None,
-             crest_flat: float | None = None) -> Identification:
+             threads: Sequence[ThreadSpec | Limits] | None = None,
+             crest_flat: float | None = None,
+             taper: tuple[float, float, float] | None = None) -> Identification:
     """Return the catalogue threads ranked against the measurements, and how to tell them apart.
 
     Parameters as ``measured`` (major, minor, length, crest_flat [mm]; pitch [mm]; tpi [1/in];
-    angle [deg]; wires: (wire [mm], reading [mm]) pairs); limit: most candidates listed;
-    threads: the threads to rank (default: the whole catalogue).
+    angle [deg]; wires: (wire [mm], reading [mm]) pairs; taper: (diameter, diameter, distance
+    apart) [mm]); limit: most candidates listed; threads: the threads to rank (default: the
+    whole catalogue), each a ThreadSpec or the Limits to judge it by.
     References: this module's docstring; limits from the family modules.
     """
     m = measured(major=major, minor=minor, pitch=pitch, tpi=tpi, count=count, length=length,
                  counted=counted, angle=angle, wires=wires, kind=kind,
-                 length_uncertainty=length_uncertainty, crest_flat=crest_flat)
+                 length_uncertainty=length_uncertainty, crest_flat=crest_flat,
+                 taper=taper)
     return identify_measured(m, limit=limit, threads=threads)
 
 
 def identify_measured(m: Measured, *, limit: int = 8,
-                      threads: Sequence[ThreadSpec] | None = None) -> Identification:
+                      threads: Sequence[ThreadSpec | Limits] | None = None) -> Identification:
     """Return the ranked candidates for checked measurements ``m`` (see ``identify``).
 
     References: this module's docstring.
@@ -611,8 +702,9 @@ def identify_measured(m: Measured, *, limit: int = 8,
     if threads is None:
         from shopterm.standards import catalogue
         threads = catalogue()
-    ranked = sorted(((_evaluate(m, s), i) for i, s in enumerate(threads) if _prefilter(m, s)),
-                    key=lambda t: (-t[0].score, t[1]))
+    pairs_in = [(t.spec, t) if isinstance(t, Limits) else (t, None) for t in threads]
+    ranked = sorted(((_evaluate(m, s, lim), i) for i, (s, lim) in enumerate(pairs_in)
+                     if _prefilter(m, s)), key=lambda t: (-t[0].score, t[1]))
     scored = [c for c, _ in ranked]
     listed = [c for c in scored if c.score >= MIN_SCORE][:limit]
     note = ""
@@ -706,9 +798,9 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
                 and sa.form.angle_deg > 0 and sb.form.angle_deg > 0:
             out.extend(_wire_tell(a, b, m))
     same_shape = _same_proportions(sa.form, sb.form)
+    la, lb = a.limits or _limits(sa, m.kind), b.limits or _limits(sb, m.kind)
     if sa.form.angle_deg == sb.form.angle_deg and not same_shape:
         # same angle, other proportions (Acme and stub Acme): the depth tells them apart
-        la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
         q = "root (minor) diameter" if m.kind == "external" else "root (major) diameter"
 
         def root_band(lim: Limits) -> tuple[float, float]:
@@ -735,8 +827,20 @@ def tell_apart(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
             f"start{'s' if sa.starts > 1 else ''}, lead {_mm(sa.lead)} mm; {b.designation} "
             f"{sb.starts}, lead {_mm(sb.lead)} mm",
             _exact(a, b, "lead", sa.lead, sb.lead)))
-    if abs(sa.pitch - sb.pitch) <= 1e-9 and same_shape and sa.starts == sb.starts:
-        la, lb = _limits(sa, m.kind), _limits(sb, m.kind)
+    ka, kb = _taper_k(la), _taper_k(lb)
+    if abs(ka - kb) > 1e-9:
+        d = TAPER_CHECK_DISTANCE
+        name = lambda k: f"tapered 1 in {1 / k:g}" if k else "parallel"   # noqa: E731
+        out.append(TellApart(
+            pair, "taper",
+            f"measure the crest diameter with calipers at two places {_mm(d)} mm apart along "
+            f"the thread: on {a.designation} ({name(ka)}) they differ by {_mm(ka * d)} mm, on "
+            f"{b.designation} ({name(kb)}) by {_mm(kb * d)} mm",
+            (Expected(a.designation, f"diameter change over {_mm(d)} mm", ka * d, ka * d),
+             Expected(b.designation, f"diameter change over {_mm(d)} mm", kb * d, kb * d))))
+    if abs(sa.pitch - sb.pitch) <= 1e-9 and same_shape and sa.starts == sb.starts \
+            and abs(ka - kb) <= 1e-9:
+        la, lb = _along_taper(la), _along_taper(lb)     # tapered: anywhere on the thread
         if m.kind == "external":
             ra, rb = (la.major_min, la.major_max), (lb.major_min, lb.major_max)
             q = "major diameter"
@@ -777,7 +881,7 @@ def _wire_tell(a: Candidate, b: Candidate, m: Measured) -> list[TellApart]:
     """Return the wire readings that separate two forms of (nearly) the same pitch."""
     sa, sb = a.spec, b.spec
     pair = (a.designation, b.designation)
-    la, lb = _limits(sa, "external"), _limits(sb, "external")
+    la, lb = a.limits or _limits(sa, "external"), b.limits or _limits(sb, "external")
     wire = m.wires[0].wire if m.wires else round(wire_range(sa.form, sa.pitch).best, 3)
 
     def reading(spec: ThreadSpec, lim: Limits, w: float) -> tuple[float, float]:

@@ -150,6 +150,42 @@ class ToolTip:
 
 CompoundZero = Literal["cross_slide", "bed"]
 
+#: How a taper attachment's guide bar is graduated: its angle to the lathe's axis in degrees,
+#: or the taper it turns on diameter in inches per foot or mm per 100 mm.
+AttachmentScale = Literal["deg", "in_per_ft", "mm_per_100mm"]
+ATTACHMENT_SCALES: tuple[str, ...] = ("deg", "in_per_ft", "mm_per_100mm")
+
+
+@dataclass(frozen=True)
+class Tailstock:
+    """The tailstock's set-over: the value of one line of its scale, and how far it goes.
+
+    ``division`` [mm] is None when the scale has no graduations to set by (set with a dial
+    indicator); ``unit`` is the unit the config wrote it in (for showing); ``max_set_over`` [mm]
+    is None when not given.
+    """
+
+    division: float | None = None
+    unit: Unit = "mm"
+    max_set_over: float | None = None
+
+
+@dataclass(frozen=True)
+class TaperAttachment:
+    """A taper attachment: how its guide bar is graduated, its largest setting (in that
+    graduation) and the longest taper it can follow [mm, None when not given]."""
+
+    scale: AttachmentScale
+    max_setting: float
+    max_travel: float | None = None
+
+    def __post_init__(self):
+        if self.scale not in ATTACHMENT_SCALES:
+            raise InvalidEntry("A taper attachment is graduated in deg, in_per_ft or "
+                               "mm_per_100mm.")
+        if not self.max_setting > 0:
+            raise InvalidEntry("A taper attachment's largest setting must be greater than zero.")
+
 
 @dataclass(frozen=True)
 class Lathe:
@@ -167,6 +203,9 @@ class Lathe:
     clearance_margin: int = 15                      # compound-train clearance rule [teeth]
     spindle_gear: int | None = None                 # teeth of a gear on the spindle, for indexing
     faceplate_slots: int | None = None              # driving plate slots, for indexing starts
+    tailstock: Tailstock | None = None              # set-over scale, for tapers between centres
+    taper_attachment: TaperAttachment | None = None
+    compound_travel: float | None = None            # the compound slide's travel [mm]
 
     def compound_scale_reading(self, true_angle_deg: float) -> float:
         """Return what to set on this compound's scale for a true angle from the cross-slide."""

@@ -429,3 +429,56 @@ def test_check_config_default_and_cli(capsys, clean_env, tmp_path):
     assert cli_main(["--check-config", str(p)]) == 2
     assert cli_main(["--config", str(sample_config_path()), "--check-config"]) == 0
     assert cli_main(["--check-config", str(tmp_path / "missing.toml")]) == 2
+
+
+# --- the taper set-up: [tailstock], [taper_attachment], compound.travel ---------------------------
+
+def test_sample_taper_kit():
+    c = load_config(sample_config_path())
+    t, a = c.lathe.tailstock, c.lathe.taper_attachment
+    assert (t.division, t.unit, t.max_set_over) == (1.0, "mm", 12.0)
+    assert (a.scale, a.max_setting) == ("in_per_ft", 3.0)
+    # 10 in and 2.75 in travel # computed from 1 in = 25.4 mm, NIST SP 811
+    assert a.max_travel == pytest.approx(254.0) and c.lathe.compound_travel == pytest.approx(69.85)
+
+
+def test_taper_kit_is_optional():
+    start = SAMPLE.index("[tailstock]")
+    end = SAMPLE.index("[thread_dial]")
+    c = read(SAMPLE[:start] + SAMPLE[end:])
+    assert c.lathe.tailstock is None and c.lathe.taper_attachment is None
+    c = read(edited('set_over_division = "1 mm"', '# no lines to set by'))
+    assert c.lathe.tailstock.division is None and c.lathe.tailstock.max_set_over == 12.0
+    c = read(edited('max_set_over = "12 mm"', 'max_set_over = "0.5 in"'))
+    assert c.lathe.tailstock.max_set_over == pytest.approx(12.7)   # 0.5 x 25.4, NIST SP 811
+    c = read(edited('scale = "in_per_ft"', 'scale = "mm_per_100mm"'))
+    assert c.lathe.taper_attachment.scale == "mm_per_100mm"
+
+
+TAPER_BAD = [
+    ("unknown key in tailstock", 'max_set_over = "12 mm"', 'max_setover = "12 mm"',
+     "tailstock.max_setover", "max_setover"),
+    ("set-over without unit", 'set_over_division = "1 mm"', "set_over_division = 1",
+     "tailstock.set_over_division", "set_over_division = 1"),
+    ("negative set-over", 'max_set_over = "12 mm"', 'max_set_over = "-12 mm"',
+     "tailstock.max_set_over", "max_set_over ="),
+    ("bad attachment scale", 'scale = "in_per_ft"', 'scale = "inches"',
+     "taper_attachment.scale", 'scale = "inches"'),
+    ("missing attachment scale", 'scale = "in_per_ft"', "# no scale", "taper_attachment",
+     "[taper_attachment]"),
+    ("attachment range as text", "max_setting = 3 ", 'max_setting = "3" ',
+     "taper_attachment.max_setting", "max_setting ="),
+    ("attachment range zero", "max_setting = 3 ", "max_setting = 0 ",
+     "taper_attachment.max_setting", "max_setting = 0"),
+    ("missing attachment range", "max_setting = 3 ", "# no range ", "taper_attachment",
+     "[taper_attachment]"),
+    ("unknown key in attachment", 'max_travel = "10 in"', 'max_travl = "10 in"',
+     "taper_attachment.max_travl", "max_travl"),
+    ("compound travel without unit", 'travel = "2.75 in"', "travel = 2.75",
+     "compound.travel", "travel = 2.75"),
+]
+
+
+@pytest.mark.parametrize("what,old,new,key,fragment", TAPER_BAD, ids=[b[0] for b in TAPER_BAD])
+def test_each_taper_mistake_names_key_and_line(what, old, new, key, fragment):
+    test_each_mistake_names_key_and_line(what, old, new, key, fragment)
