@@ -24,7 +24,7 @@ from fractions import Fraction
 from pathlib import Path
 from typing import Any
 
-from shopterm.errors import ConfigError, InvalidEntry
+from shopterm.errors import ConfigError, InvalidEntry, ShoptermError
 from shopterm.lathe.machine import (Dial, GearboxPosition, Lathe, Leadscrew, Shop, ThreadDial,
                                     ToolTip, WireSize)
 from shopterm.resources import sample_config_path
@@ -50,6 +50,8 @@ class Config:
     path: Path
     how_found: str
     theme_dirs: tuple[Path, ...] = ()     # extra theme folders the config names (display.theme_dir)
+    favourites: tuple[str, ...] = ()      # designations as the standards print them
+    problems: tuple[str, ...] = ()        # mistakes that cost one entry only (a bad favourite)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -266,6 +268,17 @@ class _Reader:
     def __init__(self, path: Path, text: str):
         self.path = path
         self.lines = key_lines(text)
+        self.text_lines = text.splitlines()
+
+    def line_of_text(self, where: Where, item: str) -> int | None:
+        """Return the line of the quoted ``item`` in the value of the key at ``where``."""
+        start = line_of(self.lines, where)
+        if start is None:
+            return None
+        for n, line in enumerate(self.text_lines[start - 1:], start=start):
+            if f'"{item}"' in line or f"'{item}'" in line:
+                return n
+        return start
 
     def error(self, where: Where, message: str) -> ConfigError:
         return ConfigError(message, path=str(self.path), key=dotted(where) or None,
@@ -399,7 +412,7 @@ class _Reader:
 # The sections
 
 _TOP = ("display", "lathe", "leadscrew", "gear_train", "change_gears", "gearbox", "cross_slide",
-        "compound", "thread_dial", "wires", "micrometer", "tool", "indexing")
+        "compound", "thread_dial", "wires", "micrometer", "tool", "indexing", "favourites")
 
 
 def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
@@ -465,6 +478,8 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     slots = r.integer(w, idx, "driving_plate_slots", what="the driving plate's slots",
                       example="4")
 
+    favourites, problems = _favourites(r, r.table((), data, "favourites"))
+
     lathe = Lathe(name=name, leadscrew=leadscrew, cross_dial=cross, compound_dial=compound,
                   compound_zero=zero, gears=gears, fixed_ratio=fixed_ratio, gearbox=gearbox,
                   thread_dial=thread_dial, clearance_margin=clearance,
@@ -475,7 +490,41 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     if tool is not None:
         shop_kw["tool"] = tool
     return Config(lathe=lathe, shop=Shop(**shop_kw), path=path, how_found=how_found,
-                  theme_dirs=theme_dirs)
+                  theme_dirs=theme_dirs, favourites=favourites, problems=problems)
+
+
+def _favourites(r: _Reader, t: dict | None) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    """Return (the favourite threads as designations, one problem message per bad one).
+
+    A designation the standards do not know is reported and left out; the others are kept.
+    """
+    if t is None:
+        return (), ()
+    w = ("favourites",)
+    r.keys(w, t, ("threads",))
+    value = t.get("threads", [])
+    example = '["M10x1.5-6g", "3/8-16 UNC-2A"]'
+    if not isinstance(value, list):
+        raise r.error(w + ("threads",), f"'threads' must be a list of designations in quotes, "
+                                        f"e.g. threads = {example}.")
+    from shopterm.standards import parse, limits
+    good: list[str] = []
+    problems: list[str] = []
+    for i, item in enumerate(value):
+        if not isinstance(item, str) or not item.strip():
+            raise r.error(w + ("threads",), f"favourite {i + 1} ({item!r}) is not a designation "
+                                            f"in quotes, e.g. threads = {example}.")
+        try:
+            spec = parse(item)
+            limits(spec)
+        except ShoptermError as exc:
+            problems.append(str(ConfigError(f"favourite '{item}' left out: {exc}",
+                                            path=str(r.path), key="favourites.threads",
+                                            line=r.line_of_text(w + ("threads",), item))))
+            continue
+        if spec.designation not in good:
+            good.append(spec.designation)
+    return tuple(good), tuple(problems)
 
 
 def _leadscrew(r: _Reader, t: dict) -> Leadscrew:
@@ -650,7 +699,7 @@ def load_config(path: str | os.PathLike | None = None, how_found: str | None = N
 
 
 def check_config_command(path: str | os.PathLike | None = None) -> int:
-    """Return 0 after printing ``OK: <path> (<lathe name>)``, or 2 after printing the problem.
+    """Return 0 after printing ``OK: <path> (<lathe name>)``, or 2 after printing the problems.
 
     path: the file to check; None or "" checks the one ``find_config`` would use.
     """
@@ -658,6 +707,10 @@ def check_config_command(path: str | os.PathLike | None = None) -> int:
         config = load_config(path or None)
     except ConfigError as exc:
         print(f"shopterm: {exc}", file=sys.stderr)
+        return 2
+    for problem in config.problems:
+        print(f"shopterm: {problem}", file=sys.stderr)
+    if config.problems:
         return 2
     print(f"OK: {config.path} ({config.lathe.name})")
     return 0
