@@ -87,6 +87,7 @@ async def test_recent_thread_comes_first(make_app):
         await pilot.press(digit_of(app, "M10x1.5-6g"), "enter")
         app.new_job()
         await pilot.pause()
+        await pilot.press(digit_of(app, "choose again"))
         labels = [lbl for lbl, _ in app.screen.query_one("#choices").page_items()]
         assert labels[:2] == ["recent M10x1.5-6g", "M12x1.75-6g"], labels
         await pilot.press("1", "enter")
