@@ -3,7 +3,9 @@
 Each test drives the installed command at 80x24 with the keys a numeric keypad sends through
 tmux (digits, ``.``, keypad Enter as ``C-j``, Backspace, ``+ - * /``; never a letter):
 
-1. the thread by the list walk (digits; ``0`` turns a page), two starts by the walk's option;
+1. the thread by digits (the jobs and how each thread is picked, by the list walk or as a
+   favourite of the demo config, are in ``tests/keypad_jobs.py``, which the key-count
+   benchmark replays too), two starts by the thread's option;
 2. the demo lathe's set-up: change gears (the lead they make is re-derived with
    ``fractions.Fraction``), work holding, run-out, indexing for two starts; Enter records it;
 3. the checklist, every item walked with Enter (the compound setting and half-nut plan read);
@@ -34,11 +36,11 @@ import pytest
 from shopterm.job.state import fold
 from shopterm.job.store import Store
 from tests.e2e import tmux
+from tests.keypad_jobs import SETUP_ANSWERS, KeypadJob, demo_config, job
 from tests.e2e.thread_sim import INCH, ThreadSim, radial_from_dial
 
 pytestmark = pytest.mark.e2e
 
-SAMPLE = Path(__file__).resolve().parents[2] / "sample_config.toml"
 WAIT = 20.0                        # longest one screen may take to appear [s] (slow CI)
 ENTER = tmux.KEYPAD_ENTER
 KEYPAD = set("0123456789.+-*/") | {ENTER, "BSpace"}
@@ -114,18 +116,6 @@ def find(pattern: str, text: str, what: str) -> re.Match:
 # ---------------------------------------------------------------------------------------------
 # The configs: the sample's demo lathe, shown in mm or in inches
 
-def demo_config(tmp: Path, units: str) -> Path:
-    """Return the sample config (the demo lathe) with the display in ``units`` and a micrometer
-    that reads 0.001 mm (metric) or 0.0001 in (inch), as a shop with either would have."""
-    text = SAMPLE.read_text(encoding="utf-8")
-    text = re.sub(r'(?m)^units = "\w+"', f'units = "{units}"', text, count=1)
-    res = '"0.001 mm"' if units == "mm" else '"0.0001 in"'
-    text = re.sub(r'(?m)^resolution = "[^"]*"', f"resolution = {res}", text, count=1)
-    path = tmp / f"demo-{units}.toml"
-    path.write_text(text, encoding="utf-8")
-    return path
-
-
 def length_mm(text: str) -> float:
     """Return a config length such as ``0.001 in`` in mm."""
     value, unit = text.split()
@@ -151,14 +141,11 @@ def lathe_facts(config: Path) -> dict:
 # ---------------------------------------------------------------------------------------------
 # One whole job
 
-def choose_thread(m: Machine, walk: list[tuple[str, str]], starts: int, want: str) -> str:
-    """Walk the thread lists by digits, set the starts, use it; return the designation shown."""
+def choose_thread(m: Machine, walk, starts: int, want: str) -> str:
+    """Pick the thread from the lists by digits, set the starts, use it; return the designation
+    shown."""
     m.wait("Thread family")
     for heading, label in walk:
-        if heading == "Pitch":          # a size with one pitch skips this step
-            text = m.wait(re.compile(r"External or internal|\bPitch\b"))
-            if "External or internal" in text:
-                continue
         pick(m, heading, label, f"thread: {heading.lower()}")
     text = m.wait("This thread")
     for n in range(2, starts + 1):
@@ -200,8 +187,8 @@ def set_up_lathe(m: Machine, facts: dict, lead_mm: Fraction, starts: int) -> dic
     if ", exact" in text:
         assert made == lead_mm, (gears, made)
     m.keys("1")                                          # the best train
-    pick(m, "how is the work held?", "in a chuck", "set-up: work holding")
-    pick(m, "where does the tool run out", "into a relief groove (undercut)", "set-up: run-out")
+    for heading, label in SETUP_ANSWERS:                 # work holding, run-out
+        pick(m, heading, label, f"set-up: {label}")
     out = {"gears": gears}
     if starts > 1:
         text = m.wait("index to the next of")
@@ -299,9 +286,9 @@ def back_to_counter(m: Machine) -> str:
     return m.wait(re.compile(r"│ Pass counter │"))
 
 
-def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, od_typed: str,
-                  band: tuple[float, float], export_from_screen: bool):
+def run_whole_job(tmp_path: Path, j: KeypadJob):
     """Cut one whole job by keypad; return (machine, record state, card text, log)."""
+    units, starts, od_typed, band = j.units, j.starts, j.od_typed, j.band
     reason = tmux.missing_tools()
     if reason:
         pytest.skip(reason)
@@ -310,7 +297,7 @@ def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, o
     data = tmp_path / "record"
     m = Machine(tmp_path, config, data)
     try:
-        designation = choose_thread(m, walk, starts, want)
+        designation = choose_thread(m, j.choose, starts, j.want)
         text = m.wait("Question 1 of")
         lead_mm = Fraction(find(r"lead (\d+\.\d+) mm", text, "lead")[1])
         found = set_up_lathe(m, facts, lead_mm, starts)
@@ -361,7 +348,7 @@ def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, o
             m.wait(lambda t: PASS_OF.search(t) or SPRING.search(t) or ALL_CUT.search(t))
         final = readings[-1]
         assert final["state"] == "in_band", final["text"]
-        card = export_card(m, data, export_from_screen)
+        card = export_card(m, data, j.export_from_screen)
         with Store.open_read_only(data) as store:
             jobs = store.jobs(include_archived=True)
             state = fold(store.events(jobs[0].id))
@@ -456,19 +443,12 @@ def check_card(card: str, state, unit: str, band: tuple[float, float], sim: Thre
 # ---------------------------------------------------------------------------------------------
 # The jobs
 
-M10_WALK = [("Thread family", "ISO metric"), ("Size", "M10"), ("Pitch", "1.5 mm coarse"),
-            ("External or internal", "external (screw)"), ("Class of fit", "6g")]
-UNC_WALK = [("Thread family", "Unified inch"), ("Series", "UNC"), ("Size", "3/8"),
-            ("Pitch", "16 tpi UNC"), ("External or internal", "external (screw)"),
-            ("Class of fit", "2A")]
-M10_6G = (8.862, 8.994)        # ISO 965-2, M10x1.5-6g d2 min / max (published-values.md §1)
-UNC_2A = (0.3287, 0.3331)      # ASME B1.1 table, 3/8-16 UNC-2A PD min / max (published-values.md §2)
+M10_6G = job("M10x1.5-6g").band
+UNC_2A = job("3/8-16 UNC-2A").band
 
 
 def test_m10_metric_job_by_keypad(tmp_path):
-    m, state, card, run = run_whole_job(
-        tmp_path, units="mm", walk=M10_WALK, starts=1, want="M10x1.5-6g",
-        od_typed="9.95", band=M10_6G, export_from_screen=True)
+    m, state, card, run = run_whole_job(tmp_path, job("M10x1.5-6g"))
     # 60 > idler > 127 on the 8 tpi leadscrew: 25.4/8 × 60/127 = 1.5 mm exactly
     # computed with Fraction, published-values.md §8 (8 tpi × 120/127 = 3.000 mm)
     assert gear_lead_mm("60 > idler > 127", 8) == Fraction(3, 2)
@@ -483,9 +463,7 @@ def test_m10_metric_job_by_keypad(tmp_path):
 
 
 def test_unc_inch_job_by_keypad(tmp_path):
-    m, state, card, run = run_whole_job(
-        tmp_path, units="in", walk=UNC_WALK, starts=1, want="3/8-16 UNC-2A",
-        od_typed="0.3730", band=UNC_2A, export_from_screen=False)
+    m, state, card, run = run_whole_job(tmp_path, job("3/8-16 UNC-2A"))
     # 16 tpi from an 8 tpi leadscrew: ratio 1/2 exactly, lead 25.4/16 mm
     # computed with Fraction from the train on the screen (published-values.md §8)
     assert gear_lead_mm(run["found"]["gears"], 8) == Fraction(254, 160)
@@ -494,9 +472,7 @@ def test_unc_inch_job_by_keypad(tmp_path):
 
 
 def test_two_start_job_shows_the_indexing_step(tmp_path):
-    m, state, card, run = run_whole_job(
-        tmp_path, units="mm", walk=M10_WALK, starts=2, want="M10", od_typed="9.95",
-        band=M10_6G, export_from_screen=False)
+    m, state, card, run = run_whole_job(tmp_path, job("M10x1.5 two starts"))
     facts = run["facts"]
     found = run["found"]
     assert found["indexing"], found
