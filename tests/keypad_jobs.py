@@ -10,8 +10,12 @@ blank's OD as typed. The set-up answers are the same for every job.
 from __future__ import annotations
 
 import re
+import tomllib
 from dataclasses import dataclass
+from fractions import Fraction
 from pathlib import Path
+
+from tests.e2e.thread_sim import INCH
 
 SAMPLE = Path(__file__).resolve().parents[1] / "sample_config.toml"
 
@@ -61,3 +65,25 @@ def demo_config(tmp: Path, units: str) -> Path:
     path = tmp / f"demo-{units}.toml"
     path.write_text(text, encoding="utf-8")
     return path
+
+
+def length_mm(text: str) -> float:
+    """Return a config length such as ``0.001 in`` in mm."""
+    value, unit = text.split()
+    return float(Fraction(value)) * (INCH if unit == "in" else 1.0)
+
+
+def lathe_facts(config: Path) -> dict:
+    """Return what the operator knows of the demo lathe from its config (no app code)."""
+    cfg = tomllib.loads(config.read_text(encoding="utf-8"))
+    tool = cfg["tool"]
+    kind = "radius" if "nose_radius" in tool else "flat"
+    return {"leadscrew_tpi": cfg["leadscrew"]["tpi"],
+            "compound_div_mm": length_mm(cfg["compound"]["division"]),
+            "cross_div_mm": length_mm(cfg["cross_slide"]["division"]),
+            "tip_kind": kind, "tip_mm": length_mm(tool["nose_radius" if kind == "radius"
+                                                       else "flat"]),
+            "resolution_mm": length_mm(cfg["micrometer"]["resolution"]),
+            "wires_mm": [length_mm(w.get("measured", w["marked"])) for w in cfg["wires"]],
+            "spindle_gear": cfg["indexing"]["spindle_gear"],
+            "plate_slots": cfg["indexing"]["driving_plate_slots"]}

@@ -15,6 +15,7 @@ if str(BENCH) not in sys.path:
     sys.path.insert(0, str(BENCH))
 
 import bench_core  # noqa: E402
+import bench_key_count  # noqa: E402
 import bench_keys  # noqa: E402
 import bench_startup  # noqa: E402
 
@@ -81,6 +82,25 @@ def test_clearing_caches_leaves_limits_unchanged():
     before = limits(spec)
     assert bench_core.clear_caches() >= 1       # the standards keep at least one cache
     assert limits(spec) == before
+
+
+# ---- keys counted ----------------------------------------------------------------------------
+
+def test_key_count_replays_one_job(isolated_env):
+    from tests.keypad_jobs import job
+    res = bench_key_count.run([job("3/8-16 UNC-2A")])
+    assert set(res["keys"]) == {"choose_thread", "per_pass", "per_reading", "to_first_pass"}
+    one = res["keys_per_job"][0]
+    assert one["choose_thread"] == 2                  # a favourite: its digit, then "use it"
+    assert one["per_pass"] == 1                       # Enter records a pass
+    assert one["per_reading"] == len(one["reading_typed"]) + 1    # the reading, then Enter
+    assert one["to_first_pass"] == (one["choose_thread"] + one["setup"] + one["checklist"]
+                                    + one["prepare"] + 1)
+    assert bench_key_count.report_lines(res)[0].startswith("keys ")
+
+
+def test_key_count_is_in_the_run_sections():
+    assert "keycount" in bench_run.SECTIONS
 
 
 # ---- start-up --------------------------------------------------------------------------------

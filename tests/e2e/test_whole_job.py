@@ -27,7 +27,6 @@ import math
 import re
 import subprocess
 import sys
-import tomllib
 from fractions import Fraction
 from pathlib import Path
 
@@ -36,7 +35,7 @@ import pytest
 from shopterm.job.state import fold
 from shopterm.job.store import Store
 from tests.e2e import tmux
-from tests.keypad_jobs import SETUP_ANSWERS, KeypadJob, demo_config, job
+from tests.keypad_jobs import SETUP_ANSWERS, KeypadJob, demo_config, job, lathe_facts
 from tests.e2e.thread_sim import INCH, ThreadSim, radial_from_dial
 
 pytestmark = pytest.mark.e2e
@@ -115,28 +114,6 @@ def find(pattern: str, text: str, what: str) -> re.Match:
 
 # ---------------------------------------------------------------------------------------------
 # The configs: the sample's demo lathe, shown in mm or in inches
-
-def length_mm(text: str) -> float:
-    """Return a config length such as ``0.001 in`` in mm."""
-    value, unit = text.split()
-    return float(Fraction(value)) * (INCH if unit == "in" else 1.0)
-
-
-def lathe_facts(config: Path) -> dict:
-    """Return what the operator knows of the demo lathe from its config (no app code)."""
-    cfg = tomllib.loads(config.read_text(encoding="utf-8"))
-    tool = cfg["tool"]
-    kind = "radius" if "nose_radius" in tool else "flat"
-    return {"leadscrew_tpi": cfg["leadscrew"]["tpi"],
-            "compound_div_mm": length_mm(cfg["compound"]["division"]),
-            "cross_div_mm": length_mm(cfg["cross_slide"]["division"]),
-            "tip_kind": kind, "tip_mm": length_mm(tool["nose_radius" if kind == "radius"
-                                                       else "flat"]),
-            "resolution_mm": length_mm(cfg["micrometer"]["resolution"]),
-            "wires_mm": [length_mm(w.get("measured", w["marked"])) for w in cfg["wires"]],
-            "spindle_gear": cfg["indexing"]["spindle_gear"],
-            "plate_slots": cfg["indexing"]["driving_plate_slots"]}
-
 
 # ---------------------------------------------------------------------------------------------
 # One whole job
