@@ -38,6 +38,9 @@ HOW_ENV = f"from ${ENV_VAR}"
 HOW_USER = "your config file"
 HOW_SAMPLE = "the sample shipped with shopterm (no config of your own found)"
 
+#: The same, short enough for one line of the start-up message at 80 columns.
+HOW_BRIEF = {HOW_SAMPLE: "the shipped sample: none of your own"}
+
 Where = tuple[str | int, ...]      # a key's path: table names, keys, array-of-tables indexes
 
 
@@ -76,6 +79,23 @@ def user_config_path() -> Path:
 def user_themes_dir() -> Path:
     """Return the folder where a user adds theme files: ``config_home()/themes``."""
     return config_home() / "themes"
+
+
+def short_path(path: str | os.PathLike) -> str:
+    """Return ``path`` as a person reads it in one line: the folder shopterm's own files are in
+    as ``<shopterm>``, the home folder as ``~``, else as given."""
+    path = Path(path)
+    for folder, name in ((sample_config_path().parent, "<shopterm>"), (Path.home(), "~")):
+        try:
+            return f"{name}/{path.relative_to(folder).as_posix()}"
+        except ValueError:
+            continue
+    return str(path)
+
+
+def start_message(config: "Config") -> str:
+    """Return what the app says at start about its config: where it is, how it was found."""
+    return f"Config: {short_path(config.path)}\n{HOW_BRIEF.get(config.how_found, config.how_found)}"
 
 
 def find_config(explicit: str | os.PathLike | None = None) -> tuple[Path, str]:

@@ -86,8 +86,8 @@ class ShoptermApp(App):
         elif self._goto_on_mount is not None:
             self.goto(self._goto_on_mount)
         # After the first paint: the screen is there to use a frame sooner; the toast follows.
-        self.call_after_refresh(self.notify, f"Config: {self.config.path} "
-                                f"({self.config.how_found})", timeout=4)
+        from shopterm.config import start_message
+        self.call_after_refresh(self.notify, start_message(self.config), timeout=4)
 
     # -- the job record ----------------------------------------------------------------------
     def _open_store(self) -> None:

@@ -435,6 +435,16 @@ def test_no_favourites_section_is_fine():
     assert c.favourites == () and c.problems == ()
 
 
+# --- where the config is, in one line ---------------------------------------------------------------
+
+def test_short_path_names_the_home_and_shopterm_folders(monkeypatch, tmp_path):
+    monkeypatch.setenv("HOME", str(tmp_path))
+    assert cfg.short_path(tmp_path / ".config" / "shopterm" / "config.toml") == \
+        "~/.config/shopterm/config.toml"
+    assert cfg.short_path(sample_config_path()) == "<shopterm>/sample_config.toml"
+    assert cfg.short_path("/etc/shopterm.toml") == "/etc/shopterm.toml"
+
+
 # --- shopterm --check-config ------------------------------------------------------------------------
 
 def test_check_config_ok(capsys):
