@@ -61,7 +61,7 @@ _D1 = 1.082532   # d - D1 (= d - d1)
 _D3 = 1.226869   # d - d3, external design-profile minor
 _H3 = 0.613435   # 17/24 H, external thread depth
 _H1 = 0.541266   # 5/8 H, internal thread depth (basic depth of engagement)
-_R_MIN = 0.125   # minimum external root radius / P (ISO 965-1, published-values.md §1)
+_R_MIN = 0.125   # minimum external root radius / P (ISO 965-1)
 
 _UM = 0.001      # one micrometre [mm]
 

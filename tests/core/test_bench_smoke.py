@@ -164,9 +164,9 @@ def test_keys_fall_back_to_the_thread_screen(isolated_env, monkeypatch):
 
 @pytest.mark.parametrize("typed, key, char", [
     ("1", "1", "1"),                   # digit keys carry their digit
-    ("full_stop", "full_stop", "."),   # keypad '.' arrives as full_stop (PLATFORM.md)
+    ("full_stop", "full_stop", "."),   # keypad '.' arrives as full_stop (DEVELOPERS.md, Keys)
     (".", "full_stop", "."),
-    ("+", "plus", "+"),                # keypad '+' arrives as plus (PLATFORM.md)
+    ("+", "plus", "+"),                # keypad '+' arrives as plus (DEVELOPERS.md, Keys)
     ("backspace", "backspace", "\x08"),  # ASCII BS, 0x08 (ASCII / ECMA-6 control set)
 ])
 def test_key_events_carry_the_key_name_and_character(typed, key, char):

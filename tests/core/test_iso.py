@@ -1,8 +1,8 @@
 """ISO metric family: limits of size against ISO 965-2 values, ISO 965-1 table cells, designations.
 
-Check values come from ../shared/reference/published-values.md §1 (ISO 965-2 limits as printed in
-published fastener and tap tables) and ../shared/reference/iso965-1-tables.md (ISO 965-1 tables,
-cross-checked against FED-STD-H28/21B where that document quotes a value).
+Check values come from (ISO 965-2 limits as printed in
+published fastener and tap tables) and ISO 965-1 (its tables as transcribed in two independent
+published copies compared cell by cell, cross-checked against FED-STD-H28/21B where that document quotes a value).
 """
 
 from __future__ import annotations
@@ -22,25 +22,25 @@ from shopterm.standards.forms import ISO_60
 
 # (designation, d max, d min, d2 max, d2 min, d3 max or None)
 EXTERNAL_6G = [
-    ("M3x0.5-6g", 2.980, 2.874, 2.655, 2.580, None),    # ISO 965-2, M3x0.5-6g (published-values §1 [P])
-    ("M5x0.8-6g", 4.976, 4.826, 4.456, 4.361, None),    # ISO 965-2, M5x0.8-6g (published-values §1 [P])
-    ("M6x1-6g", 5.974, 5.794, 5.324, 5.212, None),      # ISO 965-2, M6x1-6g (published-values §1 [P])
-    ("M10x1.5-6g", 9.968, 9.732, 8.994, 8.862, 8.128),  # ISO 965-2, M10x1.5-6g (published-values §1 [P])
-    ("M8x1-6g", 7.974, 7.794, 7.324, 7.212, None),      # ISO 965-2, M8x1-6g (published-values §1 [P])
-    ("M10x1.25-6g", 9.972, 9.760, 9.160, 9.042, None),  # ISO 965-2, M10x1.25-6g (published-values §1 [P])
-    ("M12x1.5-6g", 11.968, 11.732, 10.994, 10.854, None),  # ISO 965-2, M12x1.5-6g (published-values §1 [P])
-    ("M16x1.5-6g", 15.968, 15.732, 14.994, 14.854, None),  # ISO 965-2, M16x1.5-6g (published-values §1 [P])
+    ("M3x0.5-6g", 2.980, 2.874, 2.655, 2.580, None),    # ISO 965-2, M3x0.5-6g
+    ("M5x0.8-6g", 4.976, 4.826, 4.456, 4.361, None),    # ISO 965-2, M5x0.8-6g
+    ("M6x1-6g", 5.974, 5.794, 5.324, 5.212, None),      # ISO 965-2, M6x1-6g
+    ("M10x1.5-6g", 9.968, 9.732, 8.994, 8.862, 8.128),  # ISO 965-2, M10x1.5-6g
+    ("M8x1-6g", 7.974, 7.794, 7.324, 7.212, None),      # ISO 965-2, M8x1-6g
+    ("M10x1.25-6g", 9.972, 9.760, 9.160, 9.042, None),  # ISO 965-2, M10x1.25-6g
+    ("M12x1.5-6g", 11.968, 11.732, 10.994, 10.854, None),  # ISO 965-2, M12x1.5-6g
+    ("M16x1.5-6g", 15.968, 15.732, 14.994, 14.854, None),  # ISO 965-2, M16x1.5-6g
 ]
 
 # (designation, D1 min, D1 max or None, D2 min, D2 max)
 INTERNAL_6H = [
-    ("M3x0.5-6H", None, None, 2.675, 2.775),           # ISO 965-2, M3x0.5-6H (published-values §1 [P])
-    ("M5x0.8-6H", None, None, 4.480, 4.605),           # ISO 965-2, M5x0.8-6H (published-values §1 [P])
-    ("M6x1-6H", None, None, 5.350, 5.500),             # ISO 965-2, M6x1-6H (published-values §1 [P])
-    ("M10x1.5-6H", 8.376, 8.676, 9.026, 9.206),        # ISO 965-2, M10x1.5-6H (published-values §1 [P])
-    ("M12x1.75-6H", 10.106, 10.441, 10.863, 11.063),   # ISO 965-2, M12x1.75-6H (published-values §1 [P])
-    ("M10x1.25-6H", 8.647, 8.912, 9.188, 9.348),       # ISO 965-2, M10x1.25-6H (published-values §1 [P])
-    ("M12x1.5-6H", 10.376, 10.676, 11.026, 11.216),    # ISO 965-2, M12x1.5-6H (published-values §1 [P])
+    ("M3x0.5-6H", None, None, 2.675, 2.775),           # ISO 965-2, M3x0.5-6H
+    ("M5x0.8-6H", None, None, 4.480, 4.605),           # ISO 965-2, M5x0.8-6H
+    ("M6x1-6H", None, None, 5.350, 5.500),             # ISO 965-2, M6x1-6H
+    ("M10x1.5-6H", 8.376, 8.676, 9.026, 9.206),        # ISO 965-2, M10x1.5-6H
+    ("M12x1.75-6H", 10.106, 10.441, 10.863, 11.063),   # ISO 965-2, M12x1.75-6H
+    ("M10x1.25-6H", 8.647, 8.912, 9.188, 9.348),       # ISO 965-2, M10x1.25-6H
+    ("M12x1.5-6H", 10.376, 10.676, 11.026, 11.216),    # ISO 965-2, M12x1.5-6H
 ]
 
 
@@ -83,16 +83,16 @@ def _round3(x):
 DERIVED_6G = [
     # M12x1.75-6g: es g(1.75) = -34 (Table 1), Td6(1.75) = 265 (Td table), Td2 grade 6
     # (11.2-22.4, P1.75) = 150 (Td2 table), iso965-1-tables.md
-    ("M12-6g", 12.0, 1.75, -34, 265, 150, 11.966, 11.701, 10.829, 10.679),  # published-values §1 [C]
+    ("M12-6g", 12.0, 1.75, -34, 265, 150, 11.966, 11.701, 10.829, 10.679),  # ISO 68-1 and ISO 965-1/-2 (computed)
     # M24x3-6g: es g(3) = -48, Td6(3) = 375, Td2 grade 6 (22.4-45, P3) = 200, iso965-1-tables.md
-    ("M24-6g", 24.0, 3.0, -48, 375, 200, 23.952, 23.577, 22.003, 21.803),   # published-values §1 [C]
+    ("M24-6g", 24.0, 3.0, -48, 375, 200, 23.952, 23.577, 22.003, 21.803),   # ISO 68-1 and ISO 965-1/-2 (computed)
 ]
 
 
 @pytest.mark.parametrize("text,d,p,es,td,td2,dmax,dmin,d2max,d2min", DERIVED_6G)
 def test_computed_rows_rederived(text, d, p, es, td, td2, dmax, dmin, d2max, d2min):
     # computed from d max = d + es, d min = d max - Td, d2 = d - 0.649519P (ISO 68-1),
-    # d2 max = d2 + es, d2 min = d2 max - Td2 (ISO 965-1), published-values.md §1
+    # d2 max = d2 + es, d2 min = d2 max - Td2 (ISO 965-1)
     d2 = d - 0.649519 * p
     mine = (_round3(d + es / 1000), _round3(d + es / 1000 - td / 1000),
             _round3(d2 + es / 1000), _round3(d2 + es / 1000 - td2 / 1000))
@@ -106,7 +106,7 @@ def test_computed_rows_rederived(text, d, p, es, td, td2, dmax, dmin, d2max, d2m
 
 
 def test_minor_max_is_d3_plus_es():
-    # computed from d3 = d - 1.226869P (ISO 68-1 / published-values §1), d3 max = d3 + es with
+    # computed from d3 = d - 1.226869P (ISO 68-1), d3 max = d3 + es with
     # es g(1.75) = -34 µm (ISO 965-1 Table 1): 12 - 2.14702075 - 0.034 = 9.81897925
     lim = iso.limits(iso.parse("M12-6g"))
     assert lim.minor_max == pytest.approx(_round3(12 - 1.226869 * 1.75 - 0.034), abs=1e-9)
@@ -117,10 +117,10 @@ def test_minor_max_is_d3_plus_es():
 # ----------------------------------------------------------------------------- basic profile
 
 @pytest.mark.parametrize("text,h3", [
-    ("M3", 0.307),    # tap maker's table of ISO 68 values, published-values §1 [P]
-    ("M6", 0.613),    # tap maker's table of ISO 68 values, published-values §1 [P]
-    ("M10", 0.920),   # tap maker's table of ISO 68 values, published-values §1 [P]
-    ("M12", 1.074),   # tap maker's table of ISO 68 values, published-values §1 [P]
+    ("M3", 0.307),    # tap maker's table of ISO 68 values
+    ("M6", 0.613),    # tap maker's table of ISO 68 values
+    ("M10", 0.920),   # tap maker's table of ISO 68 values
+    ("M12", 1.074),   # tap maker's table of ISO 68 values
 ])
 def test_external_thread_depth_h3(text, h3):
     lim = iso.limits(iso.parse(text))
@@ -133,7 +133,7 @@ def test_external_thread_depth_h3(text, h3):
 def test_internal_depth_h1_and_basic_minor(text):
     lim = iso.limits(iso.parse(text))
     p = lim.spec.pitch
-    # computed from H1 = 5/8 H, H = sqrt(3)/2 P (ISO 68-1, published-values §1)
+    # computed from H1 = 5/8 H, H = sqrt(3)/2 P (ISO 68-1)
     assert lim.depth == pytest.approx(5 / 8 * math.sqrt(3) / 2 * p, abs=1e-6)
     # computed from D1 = D - 2 H1 = D - 1.082532P (ISO 68-1)
     assert lim.basic_minor == pytest.approx(lim.spec.major - 2 * 5 / 8 * math.sqrt(3) / 2 * p,
@@ -143,7 +143,7 @@ def test_internal_depth_h1_and_basic_minor(text):
 def test_form_and_root_radius():
     lim = iso.limits(iso.parse("M10x1.5-6g"))
     assert lim.spec.form is ISO_60
-    assert lim.root_radius_min == pytest.approx(0.125 * 1.5)  # ISO 965-1 min root radius 0.125P, published-values §1
+    assert lim.root_radius_min == pytest.approx(0.125 * 1.5)  # ISO 965-1 min root radius 0.125P
     # computed from d2 = d - 3/8 sqrt(3) P (ISO 68-1; 0.649519P as printed)
     assert lim.basic_pd == pytest.approx(10 - 3 / 8 * math.sqrt(3) * 1.5, abs=1e-6)
 

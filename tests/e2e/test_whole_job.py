@@ -141,7 +141,7 @@ def gear_lead_mm(gears: str, leadscrew_tpi: int) -> Fraction:
     """Return the lead [mm] a train written on the screen makes, exactly.
 
     ``60 > idler > 127`` (simple) or ``a/b x c/d`` (drivers a, c; driven b, d).
-    References: published-values.md section 8 (work pitch = leadscrew pitch × drivers/driven).
+    References: Rose, Modern Machine Shop Practice (work pitch = leadscrew pitch × drivers/driven).
     """
     screw = Fraction(254, 10) / leadscrew_tpi
     if m := re.fullmatch(r"(\d+) > idler > (\d+)", gears):
@@ -159,7 +159,7 @@ def set_up_lathe(m: Machine, facts: dict, lead_mm: Fraction, starts: int) -> dic
     m.shot("set-up: change gears", text)
     gears = find(r"(?m)^ Gears\s+(.+?), (?:exact|[+-][\d.]+% off the lead)", text, "gears")[1]
     made = gear_lead_mm(gears, facts["leadscrew_tpi"])
-    # computed from leadscrew pitch × drivers/driven with Fraction, published-values.md §8
+    # computed from leadscrew pitch × drivers/driven with Fraction, Rose, Modern Machine Shop Practice
     assert abs(float(made - lead_mm)) <= float(lead_mm) * 1e-3, (gears, made, lead_mm)
     if ", exact" in text:
         assert made == lead_mm, (gears, made)
@@ -411,7 +411,7 @@ def check_card(card: str, state, unit: str, band: tuple[float, float], sim: Thre
     assert abs(last.pd_mm - sim.pitch_diameter()) < 0.003
     assert lo * to_unit - 1e-9 <= sim.pitch_diameter() <= hi * to_unit + 1e-9
     # the plain three-wire relation inverts the typed reading: the record's simple PD is
-    # M - W(1 + cosec 30°) + (P/2) cot 30° (published-values.md §5, 60° constants 3 / 0.866025)
+    # M - W(1 + cosec 30°) + (P/2) cot 30° (NBS Handbook H28, three-wire method, 60° constants 3 / 0.866025)
     p = sim.pitch_mm
     assert last.payload["pd_simple_mm"] == pytest.approx(
         last.measured_mm - 3.0 * last.wire_mm + 0.866025 * p, abs=2e-6)
@@ -427,12 +427,12 @@ UNC_2A = job("3/8-16 UNC-2A").band
 def test_m10_metric_job_by_keypad(tmp_path):
     m, state, card, run = run_whole_job(tmp_path, job("M10x1.5-6g"))
     # 60 > idler > 127 on the 8 tpi leadscrew: 25.4/8 × 60/127 = 1.5 mm exactly
-    # computed with Fraction, published-values.md §8 (8 tpi × 120/127 = 3.000 mm)
+    # computed with Fraction, Rose, Modern Machine Shop Practice (8 tpi × 120/127 = 3.000 mm)
     assert gear_lead_mm("60 > idler > 127", 8) == Fraction(3, 2)
     assert run["found"]["gears"]
-    # metric lead on an inch leadscrew: keep the half nut closed (published-values.md §7)
+    # metric lead on an inch leadscrew: keep the half nut closed (Jones, Turning and Boring (1914))
     assert "keep the half nut closed" in run["found"]["half_nut"].lower()
-    # modified flank at 29.5° from the cross-slide (published-values.md §6)
+    # modified flank at 29.5° from the cross-slide (US Navy machinery training manual)
     assert run["angle"] == 29.5
     check_card(card, state, "mm", M10_6G, run["sim"])
     assert "6g" in card and "M10x1.5-6g" in card
@@ -442,7 +442,7 @@ def test_m10_metric_job_by_keypad(tmp_path):
 def test_unc_inch_job_by_keypad(tmp_path):
     m, state, card, run = run_whole_job(tmp_path, job("3/8-16 UNC-2A"))
     # 16 tpi from an 8 tpi leadscrew: ratio 1/2 exactly, lead 25.4/16 mm
-    # computed with Fraction from the train on the screen (published-values.md §8)
+    # computed with Fraction from the train on the screen (Rose, Modern Machine Shop Practice)
     assert gear_lead_mm(run["found"]["gears"], 8) == Fraction(254, 160)
     check_card(card, state, "in", UNC_2A, run["sim"])
     assert "3/8-16 UNC-2A" in card
@@ -485,17 +485,17 @@ def test_simulator_against_published_relations():
     pitch = 1.5
     sim = ThreadSim(10.0, pitch, 0.0, 60.0, "radius", 0.0, 0.001, "mm")
     # a sharp V cut to the basic depth 5/8 H below a crest at the basic major leaves the basic
-    # PD: ISO 68-1, H = 0.866025P, d2 = d - 0.649519P (published-values.md §1); here the
+    # PD: ISO 68-1, H = 0.866025P, d2 = d - 0.649519P; here the
     # sharp V from the OD reaches PD = OD - 2·depth + H, so depth = (d - d2 + H) / 2
     h = 0.8660254 * pitch
     sim.cut_to((10.0 - (10.0 - 0.649519 * pitch) + h) / 2)
     assert sim.pitch_diameter() == pytest.approx(10.0 - 0.649519 * pitch, abs=1e-6)
-    # no lead: the plain relation, 60° constants M = E + 3W - 0.866025P (published-values.md §5)
+    # no lead: the plain relation, 60° constants M = E + 3W - 0.866025P (NBS Handbook H28, three-wire method)
     w = 0.866
     assert sim.over_wires(w) == pytest.approx(sim.pitch_diameter() + 3 * w - 0.866025 * pitch,
                                               abs=1e-6)
     # H28 lead term: 1/4-20, E 0.2175, W 0.0289 in, lead 0.05 in: 0.000116 in
-    # (published-values.md §5, [C])
+    # (NBS Handbook H28, three-wire method, [C])
     inch = ThreadSim(0.25, 0.05, 0.05, 60.0, "radius", 0.0, 0.0001, "in")
     plain = 0.2175 + 3 * 0.0289 - 0.866025 * 0.05
     assert inch.over_wires(0.0289, pd_mm=0.2175) - plain == pytest.approx(0.000116, abs=2e-6)
@@ -515,14 +515,14 @@ def test_simulator_against_published_relations():
     assert abs(value * INCH - mic.over_wires(0.9)) <= 0.5 * 0.00254 + 1e-9
     assert mic.typed(0.9) == f"{value:.4f}"
     assert r.typed(0.866) == f"{r.reading(0.866):.3f}"
-    # the compound at 29.5°: travel = radial / cos 29.5° = radial × 1.14896 (published §6)
+    # the compound at 29.5°: travel = radial / cos 29.5° = radial × 1.14896 (US Navy machinery training manual)
     assert radial_from_dial(10, 0.0254, 29.5) * 1.14896 == pytest.approx(0.254, abs=1e-5)
 
 
 def test_gear_lead_helper_against_the_published_train():
-    # 8 tpi leadscrew × 120/127 = 3.000 mm (published-values.md §8), written as a simple train
+    # 8 tpi leadscrew × 120/127 = 3.000 mm (Rose, Modern Machine Shop Practice), written as a simple train
     assert gear_lead_mm("120 > idler > 127", 8) == Fraction(3)
-    # compound: 4 tpi leadscrew, 36/48 × 66/18 → 11 tpi (Rose, published-values.md §8);
+    # compound: 4 tpi leadscrew, 36/48 × 66/18 → 11 tpi (Rose);
     # our reading "a/b x c/d" has drivers a, c: 36/18 x 66/48 is that train on an 8 tpi screw
     # giving 25.4/8 × (36·66)/(18·48) = 25.4/8 × 2.75 mm
     assert gear_lead_mm("36/18 x 66/48", 8) == Fraction(254, 80) * Fraction(36 * 66, 18 * 48)
