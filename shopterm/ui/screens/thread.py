@@ -120,12 +120,12 @@ class ThreadScreen(ShopScreen):
     AUTO_FOCUS = "#choices"
     TITLE = "Thread"
     BINDINGS = [keys.bind("tab", "type_designation", "type", show=False),
-                keys.bind("full_stop,decimal", "type_number", "size")]
-    HELP = (("1-9", "pick from the numbered list; 0 = next page"),
+                keys.bind("full_stop,decimal", "type_number", "type a size")]
+    HELP = (("then", "digits and points: 10 = M10 coarse, 10.1.25 = M10x1.25, 1.6.0.35 = "
+                     "M1.6x0.35; inch as numerator.denominator.tpi: 3.8.16 = 3/8-16, "
+                     "1.1.4.7 = 1-1/4-7, 1.1.8 = 1-8"),
+            ("1-9", "pick from the numbered list; 0 = next page"),
             ("-", "go back one step in the list"),
-            (".", "type a size with digits and points: 10 = M10 coarse, 10.1.25 = M10x1.25, "
-                  "1.6.0.35 = M1.6x0.35; inch as numerator.denominator.tpi: 3.8.16 = 3/8-16, "
-                  "1.1.4.7 = 1-1/4-7, 1.1.8 = 1-8"),
             ("letter", "start typing a designation (M10x1.5-6g, 1/4-20 UNC-2A, 2BA …)"),
             ("Enter", "in the designation field: look it up; on the result: use this thread"))
     NUMBER_PROMPT = "Size.pitch: "
