@@ -31,13 +31,11 @@ import sys
 import tempfile
 from pathlib import Path
 
-HERE = Path(__file__).resolve().parent
-REPO = HERE.parents[1]
-for _p in (str(HERE), str(REPO)):
-    if _p not in sys.path:
-        sys.path.insert(0, _p)
+REPO = Path(__file__).resolve().parents[2]     # run as a script: the tests package from here
+if str(REPO) not in sys.path:
+    sys.path.insert(0, str(REPO))
 
-RESULTS = HERE / "results.json"
+RESULTS = REPO / "tests" / "bench" / "results.json"
 TARGETS = {"choose_thread": 4, "per_pass": 1, "per_reading": 8}
 FIGURES = ("choose_thread", "per_pass", "per_reading", "to_first_pass")
 KEY_NAMES = {".": "full_stop", "+": "plus", "-": "minus", "*": "asterisk", "/": "slash"}
