@@ -123,8 +123,9 @@ def with_kind(spec: ThreadSpec, kind: str) -> ThreadSpec:
     offered = classes(base)
     if not offered:
         return base
-    want = _INTERNAL_CLASS.get(spec.tol_class) if kind == "internal" else None
-    if kind == "external":
+    if kind == "internal":
+        want = _INTERNAL_CLASS.get(spec.tol_class)
+    else:
         want = next((e for e, i in _INTERNAL_CLASS.items() if i == spec.tol_class), None)
     for cls in (want, spec.tol_class):
         if cls in offered:
