@@ -313,8 +313,14 @@ class ThreadScreen(ShopScreen):
             w.snapshot()
             w.spec = v
         elif what == "cls":
+            spec = w.spec.with_(tol_class=v)
+            try:
+                limits(spec)                  # refuses a class the tables lack for this size
+            except ShoptermError as exc:
+                self.say(str(exc), error=True)
+                return
             w.snapshot()
-            w.spec = w.spec.with_(tol_class=v)
+            w.spec = spec
             w.choosing_class = False
         elif what == "special_pick":
             w.snapshot()
