@@ -195,8 +195,7 @@ class ThreadScreen(ShopScreen):
         self.walk.spec = spec
         self.remember(spec)
         self.query_one("#choices", PickList).focus()   # Enter now means "use it"
-        also = (f" (also {', '.join(s.designation for s in others)}: type its letters or pick "
-                f"it from the lists)" if others else "")
+        also = f" (also {', '.join(s.designation for s in others)})" if others else ""
         self.say(f"{spec.designation}: Enter uses it, + goes on to the set-up.{also}")
         self.show_step()
 
