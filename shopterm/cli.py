@@ -21,10 +21,19 @@ def _load(module: str):
         raise
 
 
+class OneLineParser(argparse.ArgumentParser):
+    """An argument parser whose mistakes are one line, as every other bad value: the message
+    and where to read the usage, exit status 2 (subcommand parsers are made of this class too).
+    """
+
+    def error(self, message: str):
+        self.exit(2, f"{self.prog}: {message}. See '{self.prog} --help'.\n")
+
+
 def build_parser(with_commands: bool = True) -> argparse.ArgumentParser:
     """Return the argument parser; ``with_commands=False`` leaves the calc/export modules
     unloaded (starting the app does not pay for importing them)."""
-    parser = argparse.ArgumentParser(
+    parser = OneLineParser(
         prog="shopterm",
         description="Screw cutting on a manual lathe: thread limits, set-up, pass counter, "
                     "three-wire readings and the job record.")

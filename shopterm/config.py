@@ -24,7 +24,7 @@ from fractions import Fraction
 from pathlib import Path
 from typing import Any
 
-from shopterm.errors import ConfigError, InvalidEntry
+from shopterm.errors import ConfigError, InvalidEntry, ShoptermError
 from shopterm.lathe.machine import (ATTACHMENT_SCALES, Dial, GearboxPosition, Lathe, Leadscrew,
                                     Shop, Tailstock, TaperAttachment, ThreadDial, ToolTip,
                                     WireSize)
@@ -39,6 +39,9 @@ HOW_ENV = f"from ${ENV_VAR}"
 HOW_USER = "your config file"
 HOW_SAMPLE = "the sample shipped with shopterm (no config of your own found)"
 
+#: The same, short enough for one line of the start-up message at 80 columns.
+HOW_BRIEF = {HOW_SAMPLE: "the shipped sample: none of your own"}
+
 Where = tuple[str | int, ...]      # a key's path: table names, keys, array-of-tables indexes
 
 
@@ -51,6 +54,8 @@ class Config:
     path: Path
     how_found: str
     theme_dirs: tuple[Path, ...] = ()     # extra theme folders the config names (display.theme_dir)
+    favourites: tuple[str, ...] = ()      # designations as the standards print them
+    problems: tuple[str, ...] = ()        # mistakes that cost one entry only (a bad favourite)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -75,6 +80,23 @@ def user_config_path() -> Path:
 def user_themes_dir() -> Path:
     """Return the folder where a user adds theme files: ``config_home()/themes``."""
     return config_home() / "themes"
+
+
+def short_path(path: str | os.PathLike) -> str:
+    """Return ``path`` as a person reads it in one line: the folder shopterm's own files are in
+    as ``<shopterm>``, the home folder as ``~``, else as given."""
+    path = Path(path)
+    for folder, name in ((sample_config_path().parent, "<shopterm>"), (Path.home(), "~")):
+        try:
+            return f"{name}/{path.relative_to(folder).as_posix()}"
+        except ValueError:
+            continue
+    return str(path)
+
+
+def start_message(config: "Config") -> str:
+    """Return what the app says at start about its config: where it is, how it was found."""
+    return f"Config: {short_path(config.path)}\n{HOW_BRIEF.get(config.how_found, config.how_found)}"
 
 
 def find_config(explicit: str | os.PathLike | None = None) -> tuple[Path, str]:
@@ -267,6 +289,17 @@ class _Reader:
     def __init__(self, path: Path, text: str):
         self.path = path
         self.lines = key_lines(text)
+        self.text_lines = text.splitlines()
+
+    def line_of_text(self, where: Where, item: str) -> int | None:
+        """Return the line of the quoted ``item`` in the value of the key at ``where``."""
+        start = line_of(self.lines, where)
+        if start is None:
+            return None
+        for n, line in enumerate(self.text_lines[start - 1:], start=start):
+            if f'"{item}"' in line or f"'{item}'" in line:
+                return n
+        return start
 
     def error(self, where: Where, message: str) -> ConfigError:
         return ConfigError(message, path=str(self.path), key=dotted(where) or None,
@@ -400,7 +433,7 @@ class _Reader:
 # The sections
 
 _TOP = ("display", "lathe", "leadscrew", "gear_train", "change_gears", "gearbox", "cross_slide",
-        "compound", "thread_dial", "wires", "micrometer", "tool", "indexing")
+        "compound", "thread_dial", "wires", "micrometer", "tool", "indexing", "favourites")
 _TOP += ("tailstock", "taper_attachment")     # the taper set-up (``_taper_kit``)
 
 
@@ -467,6 +500,8 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     slots = r.integer(w, idx, "driving_plate_slots", what="the driving plate's slots",
                       example="4")
 
+    favourites, problems = _favourites(r, r.table((), data, "favourites"))
+
     lathe = Lathe(name=name, leadscrew=leadscrew, cross_dial=cross, compound_dial=compound,
                   compound_zero=zero, gears=gears, fixed_ratio=fixed_ratio, gearbox=gearbox,
                   thread_dial=thread_dial, clearance_margin=clearance,
@@ -480,7 +515,41 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     if side_clearance is not None:
         shop_kw["tool_side_clearance_deg"] = side_clearance
     return Config(lathe=lathe, shop=Shop(**shop_kw), path=path, how_found=how_found,
-                  theme_dirs=theme_dirs)
+                  theme_dirs=theme_dirs, favourites=favourites, problems=problems)
+
+
+def _favourites(r: _Reader, t: dict | None) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    """Return (the favourite threads as designations, one problem message per bad one).
+
+    A designation the standards do not know is reported and left out; the others are kept.
+    """
+    if t is None:
+        return (), ()
+    w = ("favourites",)
+    r.keys(w, t, ("threads",))
+    value = t.get("threads", [])
+    example = '["M10x1.5-6g", "3/8-16 UNC-2A"]'
+    if not isinstance(value, list):
+        raise r.error(w + ("threads",), f"'threads' must be a list of designations in quotes, "
+                                        f"e.g. threads = {example}.")
+    from shopterm.standards import parse, limits
+    good: list[str] = []
+    problems: list[str] = []
+    for i, item in enumerate(value):
+        if not isinstance(item, str) or not item.strip():
+            raise r.error(w + ("threads",), f"favourite {i + 1} ({item!r}) is not a designation "
+                                            f"in quotes, e.g. threads = {example}.")
+        try:
+            spec = parse(item)
+            limits(spec)
+        except ShoptermError as exc:
+            problems.append(str(ConfigError(f"favourite '{item}' left out: {exc}",
+                                            path=str(r.path), key="favourites.threads",
+                                            line=r.line_of_text(w + ("threads",), item))))
+            continue
+        if spec.designation not in good:
+            good.append(spec.designation)
+    return tuple(good), tuple(problems)
 
 
 def _leadscrew(r: _Reader, t: dict) -> Leadscrew:
@@ -702,7 +771,7 @@ def load_config(path: str | os.PathLike | None = None, how_found: str | None = N
 
 
 def check_config_command(path: str | os.PathLike | None = None) -> int:
-    """Return 0 after printing ``OK: <path> (<lathe name>)``, or 2 after printing the problem.
+    """Return 0 after printing ``OK: <path> (<lathe name>)``, or 2 after printing the problems.
 
     path: the file to check; None or "" checks the one ``find_config`` would use.
     """
@@ -710,6 +779,10 @@ def check_config_command(path: str | os.PathLike | None = None) -> int:
         config = load_config(path or None)
     except ConfigError as exc:
         print(f"shopterm: {exc}", file=sys.stderr)
+        return 2
+    for problem in config.problems:
+        print(f"shopterm: {problem}", file=sys.stderr)
+    if config.problems:
         return 2
     print(f"OK: {config.path} ({config.lathe.name})")
     return 0

@@ -15,8 +15,8 @@
 
 Compound travel for a radial depth h at angle θ from the cross-slide: h / cos θ.
 
-References: published-values.md §6 (US Navy machinery training manual: 29.5° for 60° threads;
-compound travel = depth / cos angle; 29.5° → 1.14896, 27.5° → 1.12738).
+References: US Navy machinery training manual (29.5° for 60° threads); compound travel =
+depth / cos angle computed from the geometry (29.5° → 1.14896, 27.5° → 1.12738).
 """
 
 from __future__ import annotations
@@ -43,7 +43,7 @@ def compound_factor(angle_deg: float) -> float:
     """Return compound travel per unit of radial depth, 1 / cos(angle).
 
     angle_deg: the compound's true angle from the cross-slide direction [deg], 0 ≤ angle < 90.
-    References: published-values.md §6 [C] (29.5° → 1.14896, 27.5° → 1.12738).
+    References: computed, travel = radial / cos θ (29.5° → 1.14896, 27.5° → 1.12738).
     """
     if not (0 <= angle_deg < 90) or not math.isfinite(angle_deg):
         raise InvalidEntry(f"A compound angle of {angle_deg:g}° cannot feed in: give the angle "
@@ -84,7 +84,7 @@ def infeed_method(method: str, form_angle_deg: float, *, angle_deg: float | None
     flank and modified only); offset_deg [deg] for modified and alternating; lathe: a ``Lathe``
     for the compound scale convention (None: scale zeroed along the cross-slide); internal,
     hand: for the wording of the steps.
-    References: published-values.md §6.
+    References: US Navy machinery training manual.
     """
     if method not in METHODS:
         raise InvalidEntry(f"{method!r} is not an infeed method: use one of {', '.join(METHODS)}.")

@@ -15,7 +15,7 @@ After a wire reading the rest of the plan is recomputed from the measured pitch 
 now)/2 internal. A replanned constant-area plan keeps the chip area constant from the depth
 reached (for a V groove the area goes as depth², so cum_i = √(d0² + (d1² − d0²)·i/k)).
 
-References: published-values.md §6 (threading-tool handbooks: constant chip-area infeed;
+References: threading-tool handbooks (constant chip-area infeed;
 ap 0.6 mm, 5 passes → 0.164, 0.300, 0.424, 0.520, 0.600; a last pass of 0.025–0.05 mm and
 spring passes are usual).
 """
@@ -70,7 +70,7 @@ def constant_area_depths(total: float, passes: int) -> tuple[float, ...]:
 
     total: ap, the total radial depth [mm]; passes: nap ≥ 1.
     Δap_x = ap/√(nap − 1)·√φ, φ = 0.3 (x = 1), 1 (x = 2), x − 1 (x ≥ 3).
-    References: published-values.md §6, threading-tool handbooks.
+    References: threading-tool handbooks.
     """
     _check_depth_and_passes(total, passes)
     if passes == 1:
@@ -121,7 +121,7 @@ def groove_area_depths(total: float, passes: int, flat: float, tan_half: float,
     A(ap)·φ_x/(nap − 1) with the published φ (0.3, 1, 2, … nap − 1); continuing from a depth
     already cut, equal areas. With no flat this is the published depth law (area ∝ depth²);
     with a wide flat the area is nearly ∝ depth and the passes nearly equal.
-    References: published-values.md §6 (threading-tool handbooks), generalised to the true
+    References: threading-tool handbooks (constant chip-area infeed), generalised to the true
     groove area (computed, ``groove_area``).
     """
     _check_depth_and_passes(total, passes)
@@ -160,7 +160,7 @@ def passes_for_first(total: float, max_first: float, kind: str = "constant-area"
 
     total [mm]; max_first [mm]. Constant area: first = ap·√(0.3/(n − 1)) → n = ⌈0.3(ap/max)²⌉ + 1;
     equal: n = ⌈ap/max⌉.
-    References: published-values.md §6 (inverted).
+    References: threading-tool handbooks (inverted).
     """
     if not (max_first > 0):
         raise InvalidEntry("The largest first pass must be greater than zero.")
@@ -269,7 +269,7 @@ def make_plan(total_radial: float, method: InfeedMethod, *, lathe=None,
     thread cut with a flat-nosed tool, the tip's width: a constant-area plan then keeps the
     groove's true chip area (``groove_area_depths``) and, the pass count not given, takes the
     fewest passes whose largest radial step is at most ``max_first``.
-    References: published-values.md §6.
+    References: threading-tool handbooks (constant chip-area infeed).
     """
     _check_kind(kind)
     notes_out = list(notes)
@@ -402,7 +402,7 @@ def replan(plan: Plan, measured_pd: float, aim_pd: float, done_cum_radial: float
     plan: the plan being cut; measured_pd [mm]: from the wires; aim_pd [mm]; done_cum_radial
     [mm]: the radial depth set on the dial for the last pass cut; pd_min, pd_max [mm]: the band,
     for the cautions. Radial left = (PD now − aim)/2 (external), (aim − PD now)/2 (internal).
-    References: published-values.md §6; a PD changes by twice the radial infeed (both flanks).
+    References: threading-tool handbooks; a PD changes by twice the radial infeed (both flanks).
     """
     for name, v in (("measured pitch diameter", measured_pd), ("aim pitch diameter", aim_pd)):
         if not (math.isfinite(v) and v > 0):

@@ -10,7 +10,7 @@ Internal threads cannot be measured over wires on most work: ``fit_check_offer``
 
 References: NBS Handbook H28 (three-wire method); compound infeed 29.5° from the cross-slide for
 60° threads (US Navy machinery training manual); compound travel = radial / cos A
-(published-values.md §6); limits of size from ``shopterm.standards``.
+(US Navy machinery training manual); limits of size from ``shopterm.standards``.
 """
 
 from __future__ import annotations
@@ -33,7 +33,7 @@ Slide = Literal["cross-slide", "compound"]
 
 #: Default compound angle from the cross-slide [deg] by included angle of the form, with source.
 COMPOUND_ANGLES: dict[float, tuple[float, str]] = {
-    60.0: (29.5, "US Navy machinery training manual (published-values.md §6)"),
+    60.0: (29.5, "US Navy machinery training manual"),
     55.0: (27.5, "from memory: 27–27.5° for Whitworth form"),
     47.5: (23.5, "common practice, no source: a little under the half-angle"),
     30.0: (14.5, "from memory: a little under the half-angle"),
@@ -75,7 +75,7 @@ def compound_travel(radial: float, angle_deg: float) -> float:
     """Return the compound travel [mm] that gives ``radial`` [mm] infeed at ``angle_deg`` [deg].
 
     angle_deg: the compound's true angle from the cross-slide direction (0 = straight in).
-    References: published-values.md §6, travel = radial / cos A.
+    References: US Navy machinery training manual, travel = radial / cos A.
     """
     return radial / math.cos(math.radians(_check_angle(angle_deg)))
 
@@ -271,7 +271,7 @@ def measure(limits: Limits, wire: float, readings: Sequence[float], *,
     step [mm]; unit: for messages (default the thread's own); dial_step: finest dial setting
     [divisions]; class_bands: (class, pd_max, pd_min) for the undersize advice (default: the
     standard's tables).
-    References: NBS H28 three-wire method; published-values.md §5–6.
+    References: NBS H28 three-wire method; US Navy machinery training manual (compound).
     """
     spec = limits.spec
     form, pitch, lead = spec.form, spec.pitch, spec.lead

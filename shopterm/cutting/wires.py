@@ -41,7 +41,7 @@ three-wire method"; ASME B1.2 (gages and gaging for Unified threads), three-wire
 Newton's method for a stationary point and golden-section search (Kiefer 1953), as in any
 numerical analysis text (e.g. Press et al., *Numerical Recipes*, ch. 9–10);
 Jones, *Turning and Boring* (1914), m = d − 1.5155p + 3w; BS 84 / BS 93 basic forms for the
-rounded crests. Constants as collected in ../shared/reference/published-values.md §5.
+rounded crests. Constants as collected in NBS Handbook H28, three-wire method.
 """
 
 from __future__ import annotations
@@ -115,7 +115,7 @@ def wire_constants(form: ThreadForm) -> WireConstants:
     form: a symmetric basic form. The wire's top stands (W/2)(1 + cosec a) above the sharp root
     and touches the flank (W/2)·cos²a / sin a above it; a crest rounding of radius R ends its
     straight flank R·cos²a / sin a below the sharp crest.
-    References: NBS H28 three-wire method; published-values.md §5 (60° range 0.505182P–1.010363P);
+    References: NBS H28 three-wire method (60° range 0.505182P–1.010363P);
     BS 84, BS 93 crest radii.
     """
     if form.angle_deg <= 0:
@@ -149,7 +149,7 @@ class WireRange:
 def wire_range(form: ThreadForm, pitch: float) -> WireRange:
     """Return the best, smallest and largest wire [mm] for ``pitch`` [mm] of ``form``.
 
-    References: NBS H28 (best wire P / (2 cos a)); published-values.md §5.
+    References: NBS H28 (best wire P / (2 cos a)).
     """
     p = _positive(pitch, "pitch")
     k = wire_constants(form)

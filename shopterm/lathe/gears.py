@@ -11,7 +11,7 @@ Every train the gear set allows is worked out once per gear set (cached): the ra
 arrays, sorted, and each lead is answered by ``np.searchsorted``. The few nearest candidates are
 then ranked with exact ``fractions.Fraction`` arithmetic, so "exact" means exact.
 
-References: published-values.md §8 (work pitch = leadscrew pitch × Π drivers / Π driven, from
+References: Rose, Modern Machine Shop Practice (work pitch = leadscrew pitch × Π drivers / Π driven, from
 19th-century shop texts; Rose, *Modern Machine Shop Practice*, 4 tpi leadscrew 36/48 × 66/18 →
 11 tpi; 127 = 5 × 25.4 for exact metric from an inch leadscrew).
 """
@@ -31,7 +31,7 @@ from shopterm.units import MM_PER_INCH, parse_number, split_unit
 
 TrainKind = Literal["simple", "compound", "box"]
 
-#: Default clearance margin of a compound train [teeth] (published-values.md §8, common practice).
+#: Default clearance margin of a compound train [teeth] (common practice, no source).
 DEFAULT_MARGIN = 15
 
 #: Most distinct tooth counts a gear set may have (keeps the compound table a few MB).
@@ -488,7 +488,7 @@ def train_table(gears: tuple[tuple[int, int], ...], margin: int = DEFAULT_MARGIN
     """Return the sorted table of every train of a gear set (cached per gear set and margin).
 
     gears ((teeth, count) pairs, as from ``normalise_gears``); margin [teeth].
-    References: published-values.md §8 (clearance rule, common practice).
+    References: common practice, no source (the clearance rule).
     """
     return _TrainTable(gears, int(margin), compound)
 
@@ -517,7 +517,7 @@ def find_trains(leadscrew: Leadscrew, lead: float | Fraction,
     leadscrew (pitch exact); lead [mm] (multi-start: the lead, not the pitch);
     gears ((teeth, count) pairs); fixed_ratio (stud/tumbler, turns of the first driver per
     spindle turn); margin [teeth].
-    References: published-values.md §8 (work pitch = leadscrew pitch × Π drivers / Π driven;
+    References: Rose, Modern Machine Shop Practice (work pitch = leadscrew pitch × Π drivers / Π driven;
     Rose, *Modern Machine Shop Practice*).
     """
     wanted = as_exact_lead(lead)
@@ -598,7 +598,7 @@ def trains_for_lathe(lathe: Lathe, lead: float | Fraction, *, limit: int = 8,
     """Return ``find_trains`` for this lathe's leadscrew, gears, fixed ratio, box and margin.
 
     lead [mm].
-    References: published-values.md §8.
+    References: Rose, Modern Machine Shop Practice.
     """
     return find_trains(lathe.leadscrew, lead, lathe.gears, fixed_ratio=lathe.fixed_ratio,
                        gearbox=lathe.gearbox, margin=lathe.clearance_margin, limit=limit,
@@ -610,7 +610,7 @@ def lead_made(leadscrew: Leadscrew, drivers: Sequence[int], driven: Sequence[int
     """Return the lead a train makes, exactly [mm] (the inverse of the search).
 
     leadscrew (pitch exact); drivers, driven [teeth].
-    References: published-values.md §8 (work pitch = leadscrew pitch × Π drivers / Π driven).
+    References: Rose, Modern Machine Shop Practice (work pitch = leadscrew pitch × Π drivers / Π driven).
     """
     if len(drivers) != len(driven):
         raise InvalidEntry("A train has as many driven gears as drivers.")

@@ -10,7 +10,7 @@ or, which is the same groove, the work turned 1/n of a revolution against the le
   1:1 with the spindle), unmeshed and turned on teeth/n teeth (teeth divisible by n);
 - the thread dial, where the lead puts different lines into different starts.
 
-References: published-values.md §7 (thread dial), §8 (change gears); the rest is common
+References: Jones, Turning and Boring (1914) (thread dial), Rose, Modern Machine Shop Practice (change gears); the rest is common
 practice (no single published source).
 """
 
@@ -126,7 +126,7 @@ def indexing_methods(lead: float | Fraction, starts: int, *,
     spindle_gear [teeth] a gear on the spindle; stud_gear [teeth] the first driver of the train;
     fixed_ratio (stud turns per spindle turn; the stud gear works only at 1:1);
     leadscrew, thread_dial (for indexing on the dial's lines).
-    References: published-values.md §7 (dial lines); common practice, no source (the rest).
+    References: Jones, Turning and Boring (1914) (dial lines); common practice, no source (the rest).
     """
     if isinstance(starts, bool) or int(starts) != starts or starts < 2:
         raise InvalidEntry("Indexing is for 2 or more starts; a single-start thread needs "
@@ -171,7 +171,7 @@ def dial_method(lead: Fraction, starts: int, leadscrew: Leadscrew | None,
     """Return the thread-dial method: which lines put the tool into which start.
 
     lead [mm]; starts (number of starts).
-    References: published-values.md §7.
+    References: Jones, Turning and Boring (1914).
     """
     title = "Thread dial lines"
     if leadscrew is None or thread_dial is None:

@@ -14,9 +14,9 @@ If p/L is whole, every tooth position is safe: the half nut may be closed anywhe
 For n starts the tool lands in start s = (−δ·p·n/L) mod n (start s lies s pitches further
 along the way the carriage travels while cutting), when that is a whole number.
 
-References: published-values.md §7 (Jones, *Turning and Boring*: re-engage where the carriage
+References: Jones, *Turning and Boring* (1914): re-engage where the carriage
 has moved a whole number of the work's leads; one dial revolution = T/L in for an L tpi
-leadscrew; the factor 127 makes a metric lead on an inch leadscrew unusable on the dial).
+leadscrew; the factor 127 makes a metric lead on an inch leadscrew unusable on the dial.
 """
 
 from __future__ import annotations
@@ -82,7 +82,7 @@ def dial_plan(leadscrew: Leadscrew, dial: ThreadDial, lead: float | Fraction,
 
     leadscrew (pitch exact); dial (worm-wheel teeth, lines, numbered lines); lead [mm] (the
     lead, starts × pitch); starts (number of starts).
-    References: published-values.md §7 (Jones, *Turning and Boring*; the factor 127).
+    References: Jones, *Turning and Boring* (1914); the factor 127.
     """
     wanted = as_exact_lead(lead)
     teeth, k = dial.teeth, dial.lines

@@ -14,7 +14,7 @@ Tolerances used, as multiples of the pitch P [mm]:
   provisional; the Limits notes say so]
 No limit is built in for the external minor minimum or the internal minor maximum (None).
 
-References: BS 93:2008 (BA threads); published-values.md §4.
+References: BS 93:2008 (BA threads).
 """
 
 from __future__ import annotations
@@ -28,13 +28,13 @@ from shopterm.units import round_to
 
 FAMILY = "ba"
 
-#: BS 93 basic-form factors, multiples of P (BS 93; published-values.md §4 [P]).
+#: BS 93 basic-form factors, multiples of P (BS 93).
 PD_FACTOR = 0.6          # D − E
 CORE_FACTOR = 1.2        # D − core
 DEPTH_FACTOR = 0.6       # thread depth on radius
 RADIUS_FACTOR = 0.180835  # crest and root radius (exact tangent radius)
 
-#: n → (major [mm], pitch [mm]). BS 93 table as printed in published-values.md §4 [P].
+#: n → (major [mm], pitch [mm]). BS 93 table as printed.
 BA: dict[int, tuple[float, float]] = {
     0: (6.0, 1.00),
     1: (5.3, 0.90),
@@ -150,7 +150,7 @@ def limits(spec: ThreadSpec) -> Limits:
     """Return the limits of size of a BA thread, all in mm.
 
     spec: a BA thread; ``tol_class`` None (basic sizes), 'close' or 'normal'.
-    References: BS 93:2008; published-values.md §4.
+    References: BS 93:2008.
     """
     if spec.family != FAMILY:
         raise InvalidEntry(f"{spec.size} is not a BA thread.")

@@ -3,7 +3,7 @@
 References: ISO 68-1 (60° basic profile); ASME B1.1 (Unified, same basic profile);
 BS 84 (Whitworth form, 55°); BS 93 (BA form, 47.5°); ISO 2901 (trapezoidal, 30°);
 ASME B1.5 (Acme, 29°); ASME B1.8 (stub Acme, 29°, from memory); square thread (no standard).
-Factors as printed in ../shared/reference/published-values.md where it has them.
+Factors as printed in those standards.
 """
 
 from __future__ import annotations

@@ -61,7 +61,7 @@ _D1 = 1.082532   # d - D1 (= d - d1)
 _D3 = 1.226869   # d - d3, external design-profile minor
 _H3 = 0.613435   # 17/24 H, external thread depth
 _H1 = 0.541266   # 5/8 H, internal thread depth (basic depth of engagement)
-_R_MIN = 0.125   # minimum external root radius / P (ISO 965-1, published-values.md §1)
+_R_MIN = 0.125   # minimum external root radius / P (ISO 965-1)
 
 _UM = 0.001      # one micrometre [mm]
 
@@ -161,7 +161,7 @@ def _size(d: float) -> _Size | None:
     return None
 
 
-# Cells resting on one published copy only (iso965-1-tables.md): the limits say so in a note.
+# Cells resting on one published copy only: the limits say so in a note.
 _PROVISIONAL_F_FROM = 0.5            # Table 1, f column for P >= 0.5
 _PROVISIONAL_PAIRS = {(1.4, 0.3), (26.0, 1.5), (38.0, 1.5)}   # ISO 261 entries the copies dispute
 _DISPUTED_MISSING = {(30.0, 1.0), (35.0, 2.0)}                 # listed by one copy, not stored here

@@ -24,7 +24,7 @@ deviation (negative for external, positive for internal, as ``spec.py`` document
 applies its size towards less metal for the spec's kind.
 
 References: ISO 68-1 (60° basic profile, h3 = 17/24 H, d3 = d − 1.226869P); BS 84 (55°);
-BS 93 (47.5°); published-values.md §1, §3, §4.
+BS 93 (47.5°); ISO 68-1 and ISO 965-1/-2, BS 84, BS 93.
 """
 
 from __future__ import annotations
@@ -45,9 +45,9 @@ SERIES = "special"
 #: Included angles a special thread may have [deg]: the forms whose proportions shopterm has.
 ANGLES: tuple[float, ...] = (60.0, 55.0, 47.5)
 
-#: ISO 68-1 external thread depth h3 = 17/24 H and d − d3 = 2·h3 (published-values.md §1 [P]).
+#: ISO 68-1 external thread depth h3 = 17/24 H and d − d3 = 2·h3.
 _ISO_H3 = 17 / 24 * ISO_60.height          # 0.613435
-#: ISO 965-1 minimum external root radius 0.125P for 6g (published-values.md §1 [P]).
+#: ISO 965-1 minimum external root radius 0.125P for 6g.
 _ISO_ROOT_R_MIN = 0.125
 
 GRAMMAR = ("SPECIAL <diameter>x<pitch> <angle> [A<allowance>] [T<pd tolerance>] "

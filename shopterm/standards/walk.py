@@ -81,3 +81,54 @@ def pitches(key: str, series_name: str | None, size: str) -> list[ThreadSpec]:
              if s.size == size and (series_name is None or s.series == series_name)]
     specs.sort(key=lambda s: -s.pitch)
     return specs
+
+
+# The sizes most often cut in a group, offered first as whole threads (the coarse pitch, the
+# catalogue's external thread and usual class) before the rest of the group, which sits behind
+# a "more" entry. Nine to a list: one page of the keypad's digits.
+COMMON: dict[str, tuple[str, tuple[str, ...]]] = {
+    # ISO 262 selected sizes for screws, bolts and nuts, M4 to M24 (from memory); M3 and the
+    # second-choice sizes (M14, M18, M22) are under "more"
+    "iso": ("M", ("M4", "M5", "M6", "M8", "M10", "M12", "M16", "M20", "M24")),
+    # UNC and BSW fractional sizes 1/4 to 1 in (common practice, no source)
+    "unified": ("UNC", ("1/4", "5/16", "3/8", "7/16", "1/2", "5/8", "3/4", "7/8", "1")),
+    "whitworth": ("BSW", ("1/4", "5/16", "3/8", "7/16", "1/2", "5/8", "3/4", "7/8", "1")),
+}
+
+# The internal class that goes with a catalogue's usual external class: ISO 965-1 6H with 6g,
+# ASME B1.1 2B with 2A (the classes for general use); a class both kinds share (BA normal) is
+# kept. Anything else: the first class the tables give for the internal thread.
+_INTERNAL_CLASS = {"6g": "6H", "2A": "2B"}
+
+
+def common(key: str) -> list[ThreadSpec]:
+    """Return the group's common threads (coarsest pitch of each size), or [] if it has none."""
+    if key not in COMMON:
+        return []
+    series_name, names = COMMON[key]
+    out = []
+    for size in names:
+        specs = pitches(key, series_name, size)
+        if specs:
+            out.append(specs[0].with_(pitch_implied=False))
+    return out
+
+
+def with_kind(spec: ThreadSpec, kind: str) -> ThreadSpec:
+    """Return ``spec`` as an external or internal thread, with the usual class for that kind."""
+    from shopterm.standards import classes
+
+    if kind == spec.kind:
+        return spec
+    base = spec.with_(kind=kind, tol_class=None)
+    offered = classes(base)
+    if not offered:
+        return base
+    if kind == "internal":
+        want = _INTERNAL_CLASS.get(spec.tol_class)
+    else:
+        want = next((e for e, i in _INTERNAL_CLASS.items() if i == spec.tol_class), None)
+    for cls in (want, spec.tol_class):
+        if cls in offered:
+            return base.with_(tol_class=cls)
+    return base.with_(tol_class=offered[0])

@@ -16,7 +16,7 @@ to mm once: E = D − 0.640327P, core = D − 1.280654P, depth 0.640327P, crest 
 0.137329P.
 
 References: BS 84 (Whitworth form, BSW and BSF series); model-engineer series as listed in
-../shared/reference/published-values.md §3.
+BS 84.
 """
 
 from __future__ import annotations
@@ -42,7 +42,7 @@ RADIUS_FACTOR = 0.137329  # crest and root radius
 _ROUND_IN = 0.0001
 
 #: BSW: nominal size → tpi. BS 84 table. Sizes marked [P] are printed in
-#: published-values.md §3 (1/8-40, 1/4-20, 3/8-16, 1/2-12, 3/4-10, 1-8); the rest from memory.
+#: BS 84 (1/8-40, 1/4-20, 3/8-16, 1/2-12, 3/4-10, 1-8); the rest from memory.
 BSW: dict[str, float] = {
     "1/8": 40,     # BS 84 [P]
     "3/16": 24,    # from memory
@@ -67,7 +67,7 @@ BSW: dict[str, float] = {
     "2": 4.5,      # from memory
 }
 
-#: BSF: nominal size → tpi. BS 84 table. [P] in published-values.md §3: 1/4-26, 5/16-22,
+#: BSF: nominal size → tpi. BS 84 table. [P] in 1/4-26, 5/16-22,
 #: 3/8-20, 7/16-18, 1/2-16; the rest from memory.
 BSF: dict[str, float] = {
     "3/16": 32,    # from memory
@@ -87,7 +87,7 @@ BSF: dict[str, float] = {
 }
 
 #: Model-engineer series: Whitworth form at a constant 40 or 32 tpi. Sizes in use printed in
-#: published-values.md §3 [P]: 5/32, 3/16, 7/32, 1/4 x 40; 5/16, 3/8 x 32; 3/8 x 40.
+#: BS 84: 5/32, 3/16, 7/32, 1/4 x 40; 5/16, 3/8 x 32; 3/8 x 40.
 #: The others are from memory.
 ME: dict[int, tuple[str, ...]] = {
     40: ("1/8",        # from memory
@@ -114,7 +114,7 @@ ME: dict[int, tuple[str, ...]] = {
          "1"),         # from memory
 }
 
-#: BS 84 classes by kind [P] (published-values.md §3). Named so a class word gets a clear answer.
+#: BS 84 classes by kind [P]. Named so a class word gets a clear answer.
 BS84_CLASSES: dict[str, tuple[str, ...]] = {
     "external": ("close", "medium", "free"),
     "internal": ("medium", "normal"),
@@ -214,7 +214,7 @@ def parse(text: str) -> ThreadSpec | None:
     text: e.g. ``3/8 BSW``, ``1/4 BSF``, ``1/4x40 ME``, ``3/8-32 ME``.
     Raises ``UnknownThread`` for a size or tpi the series does not have, ``UnsupportedClass``
     for a class word (tolerance classes are not built in).
-    References: BS 84; published-values.md §3 (model-engineer series).
+    References: BS 84 (model-engineer series).
     """
     if not isinstance(text, str):
         return None
@@ -301,7 +301,7 @@ def limits(spec: ThreadSpec) -> Limits:
     """Return the basic limits of size of a Whitworth-form thread, all in mm.
 
     spec: a BSW, BSF or ME thread (``tol_class`` must be None).
-    References: BS 84 basic form; published-values.md §3.
+    References: BS 84 basic form.
     """
     if spec.family != FAMILY:
         raise InvalidEntry(f"{spec.size} is not a Whitworth-form thread.")
@@ -330,7 +330,7 @@ def limits(spec: ThreadSpec) -> Limits:
 def catalogue() -> list[ThreadSpec]:
     """Return every BSW, BSF and model-engineer thread in the tables, external, basic size.
 
-    References: BS 84; published-values.md §3.
+    References: BS 84.
     """
     out = [_make("BSW", size, tpi) for size, tpi in BSW.items()]
     out += [_make("BSF", size, tpi) for size, tpi in BSF.items()]

@@ -39,7 +39,7 @@ class ShoptermApp(App):
         self.spec = None           # the chosen ThreadSpec of the open job
         self._screens_by_name: dict[str, Screen] = {}
         self.current_name: str | None = None
-        self._start_notes: list[str] = []     # theme problems, shown once mounted
+        self._start_notes: list[str] = []     # theme and config problems, shown once mounted
         self._started = False
         self._resume_offer = None             # the unfinished job to ask about, on mount
         self._goto_on_mount: str | None = None
@@ -86,8 +86,8 @@ class ShoptermApp(App):
         elif self._goto_on_mount is not None:
             self.goto(self._goto_on_mount)
         # After the first paint: the screen is there to use a frame sooner; the toast follows.
-        self.call_after_refresh(self.notify, f"Config: {self.config.path} "
-                                f"({self.config.how_found})", timeout=4)
+        from shopterm.config import start_message
+        self.call_after_refresh(self.notify, start_message(self.config), timeout=4)
 
     # -- the job record ----------------------------------------------------------------------
     def _open_store(self) -> None:
@@ -189,7 +189,8 @@ class ShoptermApp(App):
         from shopterm.ui.themes import load_themes, set_start_theme
         themes, problems = load_themes(self.config.theme_dirs)
         message = set_start_theme(self, self.shop.theme, themes=themes)
-        self._start_notes = problems + ([message] if message else [])
+        self._start_notes = (problems + ([message] if message else [])
+                             + list(getattr(self.config, "problems", ())))
 
     # -- screens -----------------------------------------------------------------------------
     def screen_for(self, name: str) -> Screen:
@@ -326,6 +327,10 @@ class ShoptermApp(App):
         self.job = None
         self.spec = None
         self.goto("thread")
+
+    def favourite_threads(self) -> list[str]:
+        """Return the config's favourite threads, as designations."""
+        return list(getattr(self.config, "favourites", ()))
 
     def recent_threads(self) -> list[str]:
         """Return the designations of recent jobs, newest first, each once."""

@@ -5,7 +5,7 @@ A theme file holds the fields of ``textual.theme.Theme`` at the top level, an op
 for ``*-style`` variables). ``themes/shop-bright.toml`` documents the fields.
 
 References: Textual 8.2.8 ``Theme`` / ``App.register_theme`` / ``InvalidThemeError``
-(see /work/shared/PLATFORM.md §Themes).
+(Textual has no theme-file loader: ``Theme(**tomllib.load(f))``; verified on that version).
 """
 
 from __future__ import annotations

@@ -1,6 +1,6 @@
 """Run every shopterm benchmark, print one line per figure, write tests/bench/results.json.
 
-    python tests/bench/run.py [--runs N] [--out PATH] [--skip startup,keys,gears,core]
+    python tests/bench/run.py [--runs N] [--out PATH] [--skip startup,keys,gears,core,keycount]
 
 Plain scripts, not pytest. Each ratio is measured side by side with its baseline in this same run
 (see the docstring of each ``bench_*.py`` for its method):
@@ -12,6 +12,9 @@ Plain scripts, not pytest. Each ratio is measured side by side with its baseline
   app with one entry widget (target <= 2x).
 - ``gear_speedup`` — bench_gears.py (the gear-search owner's): its ``run()`` dict; null when that
   script is missing (target >= 100x, same answers).
+- ``keys`` — bench_key_count.py: the keys the whole keypad jobs of the e2e tests take, replayed
+  in-process: ``choose_thread``, ``per_pass``, ``per_reading``, ``to_first_pass`` (worst over
+  the jobs; targets <= 4, 1, <= 8), with each job's counts in ``keys_per_job``.
 - ``core_catalogue_ms`` — bench_core.py: limits, wires and a pass plan for every catalogue thread
   (target < 16 ms in total).
 - ``machine`` (platform, CPU model, cores, Python, textual, load average at the start,
@@ -44,7 +47,7 @@ for _p in (str(HERE), str(REPO)):
 
 RESULTS = HERE / "results.json"
 GEAR_TARGET = 100.0
-SECTIONS = ("core", "startup", "keys", "gears")
+SECTIONS = ("core", "startup", "keys", "gears", "keycount")
 
 
 def calibration_ms(repeats: int = 5) -> float:
@@ -139,7 +142,7 @@ def main(argv: list[str] | None = None) -> int:
 
     started = time.perf_counter()
     results: dict = {"startup_ratio": None, "rss_ratio": None, "key_work_ratio": None,
-                     "gear_speedup": None, "core_catalogue_ms": None}
+                     "gear_speedup": None, "core_catalogue_ms": None, "keys": None}
     results["machine"] = machine_info()
     results["date"] = _dt.date.today().isoformat()
     print(f"machine         {results['machine']['cpu']}, {results['machine']['cores_usable']} "
@@ -179,11 +182,17 @@ def main(argv: list[str] | None = None) -> int:
         res = bench_keys.run()
         return res, bench_keys.report_lines(res)
 
+    def keycount():
+        import bench_key_count
+        res = bench_key_count.run()
+        return res, bench_key_count.report_lines(res)
+
     # core first, while nothing else has touched the standards' caches in this process
     section("core", core)
     section("startup", startup)
     section("keys", keys)
     section("gears", gears_section)
+    section("keycount", keycount)
     if failures:
         results["failures"] = failures
     results["total_seconds"] = round(time.perf_counter() - started, 1)

@@ -1,6 +1,6 @@
 """BA threads (BS 93): table, form, classes, limits, designations, errors.
 
-Check values are from ../shared/reference/published-values.md §4 unless marked.
+Check values are from BS 93 unless marked.
 """
 
 import math
@@ -21,7 +21,7 @@ def _round_mm(x: str) -> float:
     return float(Decimal(x).quantize(Decimal("0.001"), rounding=ROUND_HALF_UP))
 
 
-# BS 93 major and pitch, published-values §4 [P]
+# BS 93 major and pitch
 TABLE = [(0, 6.0, 1.00), (1, 5.3, 0.90), (2, 4.7, 0.81), (3, 4.1, 0.73), (4, 3.6, 0.66),
          (5, 3.2, 0.59), (6, 2.8, 0.53), (7, 2.5, 0.48), (8, 2.2, 0.43), (9, 1.9, 0.39),
          (10, 1.7, 0.35)]
@@ -33,7 +33,7 @@ def _two_sig(x: float) -> float:
 
 # --- table and form ----------------------------------------------------------------------------
 
-@pytest.mark.parametrize("n, major, pitch", TABLE)  # BS 93 table, published-values §4 [P]
+@pytest.mark.parametrize("n, major, pitch", TABLE)  # BS 93 table
 def test_table(n, major, pitch):
     spec = ba.parse(f"{n}BA")
     assert (spec.family, spec.series, spec.size) == ("ba", "BA", f"{n}BA")
@@ -43,7 +43,7 @@ def test_table(n, major, pitch):
 
 @pytest.mark.parametrize("n, major, pitch", TABLE)
 def test_pitch_is_point_nine_to_the_n_to_two_figures(n, major, pitch):
-    # rule: pitch of n BA = 0.9^n mm to two significant figures, published-values §4 [P]
+    # rule: pitch of n BA = 0.9^n mm to two significant figures, BS 93
     assert _two_sig(0.9 ** n) == pitch
 
 
@@ -77,7 +77,7 @@ def test_radius_is_the_exact_tangent_radius_not_2p_over_11():
 
 
 @pytest.mark.parametrize("n, effective", [
-    (0, 5.400),  # computed from E = D − 0.6P, BS 93; published-values §4 [C]
+    (0, 5.400),  # computed from E = D − 0.6P, BS 93
     (2, 4.214),  # [C]
     (4, 3.204),  # [C]
     (6, 2.482),  # [C]

@@ -15,6 +15,7 @@ if str(BENCH) not in sys.path:
     sys.path.insert(0, str(BENCH))
 
 import bench_core  # noqa: E402
+import bench_key_count  # noqa: E402
 import bench_keys  # noqa: E402
 import bench_startup  # noqa: E402
 
@@ -83,6 +84,25 @@ def test_clearing_caches_leaves_limits_unchanged():
     assert limits(spec) == before
 
 
+# ---- keys counted ----------------------------------------------------------------------------
+
+def test_key_count_replays_one_job(isolated_env):
+    from tests.keypad_jobs import job
+    res = bench_key_count.run([job("3/8-16 UNC-2A")])
+    assert set(res["keys"]) == {"choose_thread", "per_pass", "per_reading", "to_first_pass"}
+    one = res["keys_per_job"][0]
+    assert one["choose_thread"] == 2                  # a favourite: its digit, then "use it"
+    assert one["per_pass"] == 1                       # Enter records a pass
+    assert one["per_reading"] == len(one["reading_typed"]) + 1    # the reading, then Enter
+    assert one["to_first_pass"] == (one["choose_thread"] + one["setup"] + one["checklist"]
+                                    + one["prepare"] + 1)
+    assert bench_key_count.report_lines(res)[0].startswith("keys ")
+
+
+def test_key_count_is_in_the_run_sections():
+    assert "keycount" in bench_run.SECTIONS
+
+
 # ---- start-up --------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("kind, screen", [("minimal", "Screen"), ("shopterm", "ThreadScreen")])
@@ -144,9 +164,9 @@ def test_keys_fall_back_to_the_thread_screen(isolated_env, monkeypatch):
 
 @pytest.mark.parametrize("typed, key, char", [
     ("1", "1", "1"),                   # digit keys carry their digit
-    ("full_stop", "full_stop", "."),   # keypad '.' arrives as full_stop (PLATFORM.md)
+    ("full_stop", "full_stop", "."),   # keypad '.' arrives as full_stop (DEVELOPERS.md, Keys)
     (".", "full_stop", "."),
-    ("+", "plus", "+"),                # keypad '+' arrives as plus (PLATFORM.md)
+    ("+", "plus", "+"),                # keypad '+' arrives as plus (DEVELOPERS.md, Keys)
     ("backspace", "backspace", "\x08"),  # ASCII BS, 0x08 (ASCII / ECMA-6 control set)
 ])
 def test_key_events_carry_the_key_name_and_character(typed, key, char):

@@ -72,8 +72,8 @@ def test_pitch_check_in_json(capsys):
 
 
 def test_wire_readings(capsys):
-    # 1/4-20 UNC bolt at PD 0.2150 in (inside ASME B1.1 2A 0.2164 / 0.2127 in, §2) over .029
-    # and .040 in wires (common sizes, published-values §5), readings from the exact model
+    # 1/4-20 UNC bolt at PD 0.2150 in (inside ASME B1.1 2A 0.2164 / 0.2127 in) over .029
+    # and .040 in wires (common sizes, NBS Handbook H28, three-wire method), readings from the exact model
     from shopterm.cutting.wires import over_wires_exact
     from shopterm.standards.forms import ISO_60
     p, e = 25.4 / 20, 0.2150 * 25.4

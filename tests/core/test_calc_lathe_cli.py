@@ -19,7 +19,7 @@ def run_json(capsys, argv):
 
 
 def test_gears_json_3mm_on_8tpi(capsys):
-    # published-values.md §8: 8 tpi leadscrew x 120/127 = 3.000 mm
+    # Rose, Modern Machine Shop Practice: 8 tpi leadscrew x 120/127 = 3.000 mm
     out = run_json(capsys, ["calc", "gears", "--lead", "3mm", "--leadscrew", "8tpi",
                             "--gears", FIVES_127])
     assert out["lead"] == 3.0
@@ -31,7 +31,7 @@ def test_gears_json_3mm_on_8tpi(capsys):
 
 
 def test_gears_tpi_lead_and_text_output(capsys):
-    # Rose (published-values.md §8): 4 tpi leadscrew, 36/48 x 66/18 -> 11 tpi
+    # Rose: 4 tpi leadscrew, 36/48 x 66/18 -> 11 tpi
     assert main(["calc", "gears", "--lead", "11tpi", "--leadscrew", "4tpi",
                  "--gears", "18,36,48,66"]) == 0
     text = capsys.readouterr().out
@@ -91,7 +91,7 @@ def test_bad_input_exits_2_with_one_line(capsys, argv):
 
 
 def test_dial_json(capsys):
-    # computed (published-values.md §7 rule): 11 tpi on 8 tpi, 32 teeth, 8 lines -> odd lines
+    # computed (Jones, Turning and Boring (1914) rule): 11 tpi on 8 tpi, 32 teeth, 8 lines -> odd lines
     out = run_json(capsys, ["calc", "dial", "--lead", "11tpi", "--leadscrew", "8tpi",
                             "--dial-teeth", "32", "--dial-lines", "8", "--numbered", "1,3,5,7"])
     assert out["lines"] == [1, 3, 5, 7] and out["anywhere"] is False
@@ -99,7 +99,7 @@ def test_dial_json(capsys):
 
 
 def test_dial_metric_on_inch_keeps_half_nut_closed(capsys):
-    # published-values.md §7 [P]: metric on an inch leadscrew -> keep the half nut closed
+    # Jones, Turning and Boring (1914): metric on an inch leadscrew -> keep the half nut closed
     out = run_json(capsys, ["calc", "dial", "--lead", "1.5mm", "--leadscrew", "8tpi",
                             "--dial-teeth", "32", "--dial-lines", "8"])
     assert out == {**out, "lines": [], "anywhere": False, "keep_half_nut_closed": True}

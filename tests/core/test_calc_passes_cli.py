@@ -28,7 +28,7 @@ def test_json_keys(capsys):
 
 
 def test_published_plan_with_depth(capsys):
-    # published-values.md §6 [C]: ap 0.6 mm, 5 passes → 0.164, 0.300, 0.424, 0.520, 0.600
+    # threading-tool handbooks (constant chip area), computed: ap 0.6 mm, 5 passes → 0.164, 0.300, 0.424, 0.520, 0.600
     out = run_json(capsys, "M10x1.5-6g", "--od", "9.96", "--depth", "0.6", "--passes", "5",
                    "--method", "radial", "--dial-div", "0.0001")
     assert [round(p["radial_cum"], 3) for p in out["passes"]] == [0.164, 0.3, 0.424, 0.52, 0.6]
@@ -39,7 +39,7 @@ def test_compound_angle_and_total(capsys):
     out = run_json(capsys, "M10x1.5-6g", "--od", "9.96", "--tip-radius", "0.2", "--angle",
                    "29.5", "--dial-div", "0.0001")
     assert out["compound_angle_true"] == 29.5
-    # compound travel = radial / cos 29.5° (published-values.md §6: factor 1.14896)
+    # compound travel = radial / cos 29.5° (US Navy machinery training manual: factor 1.14896)
     assert out["compound_total"] == pytest.approx(out["passes"][-1]["radial_cum"] * 1.14896,
                                                   abs=2e-4)
 
@@ -57,7 +57,7 @@ def test_bad_config_is_noted(capsys, tmp_path):
 def test_internal_worn_tip(capsys):
     out = run_json(capsys, "M10x1.5-6H", "--od", "8.5", "--tip-radius", "0.3")
     assert out["tool_check"]["ok"] is False and out["tool_check"]["interference"] > 0
-    assert out["bore"]["min"] == 8.376   # published-values.md §1, M10x1.5 6H D1 min [P]
+    assert out["bore"]["min"] == 8.376   # ISO 68-1 and ISO 965-1/-2, M10x1.5 6H D1 min [P]
 
 
 def test_text_output(capsys):

@@ -1,7 +1,8 @@
 """``shopterm calc wires``: JSON shape and values, units, readings, and every bad-input path.
 
-Sources: published-values.md §1 (ISO 965-2 limits [P]), §2 (ASME B1.1 [P]), §5 (three-wire
-constants and wire factors [P]), §6 (compound factor [C]).
+Sources: ISO 965-2 limits [P]; ASME B1.1 table values [P]; NBS Handbook H28 (three-wire
+constants and wire factors [P]); the compound factor 1/cos 29.5° [C]. [P] printed in the named
+standard, [C] computed from it.
 """
 
 from __future__ import annotations
@@ -35,7 +36,7 @@ def inch_wires_config(tmp_path):
     """The sample config with its wire sets replaced by the common inch sizes."""
     text = SAMPLE.read_text()
     text = re.sub(r"^\[\[wires\]\]\n(?:[a-z]+ = .*\n)*", "", text, flags=re.M)
-    # published-values §5 [P]: common inch wire sizes
+    # NBS Handbook H28, three-wire method: common inch wire sizes
     for v in (".018", ".024", ".029", ".032", ".040", ".045", ".055", ".063"):
         text += f'\n[[wires]]\nmarked = "0{v} in"\n'
     path = tmp_path / "config.toml"
@@ -48,12 +49,12 @@ def test_json_keys_and_wire_sizes(capsys):
     assert set(d) >= {"best_wire", "wire_min", "wire_max", "wire", "wire_ok", "over_wires",
                       "lead_angle_deg", "reading"}
     # output is rounded to 1e-6 mm and the factors to 1e-6: compare within 2e-6
-    assert d["best_wire"] == pytest.approx(0.577350 * 1.5, abs=2e-6)   # §5 [P] best 0.577350P
-    assert d["wire_min"] == pytest.approx(0.505182 * 1.5, abs=2e-6)    # §5 [P] 60° min
-    assert d["wire_max"] == pytest.approx(1.010363 * 1.5, abs=2e-6)    # §5 [P] 60° max
+    assert d["best_wire"] == pytest.approx(0.577350 * 1.5, abs=2e-6)   # NBS Handbook H28 [P] best 0.577350P
+    assert d["wire_min"] == pytest.approx(0.505182 * 1.5, abs=2e-6)    # NBS Handbook H28 [P] 60° min
+    assert d["wire_max"] == pytest.approx(1.010363 * 1.5, abs=2e-6)    # NBS Handbook H28 [P] 60° max
     assert d["wire"] == 0.866 and d["wire_ok"] is True                  # owned set nearest best
     assert d["reading"] is None
-    # computed from M = E + 3W − 0.866025P (§5 [P]) at the ISO 965-2 d2 limits (§1 [P]); the
+    # computed from M = E + 3W − 0.866025P (NBS Handbook H28 [P]) at the ISO 965-2 d2 limits (ISO 965-1/-2 [P]); the
     # lead-angle term adds under 0.002 mm here (NBS H28 form, ½W tan²λ cos a cot a)
     for key, pd in (("at_pd_max", 8.994), ("at_pd_min", 8.862)):
         simple = pd + 3 * 0.866 - 0.866025 * 1.5
@@ -76,7 +77,7 @@ def test_reading_oversize(capsys):
     assert r["state"] == "oversize"
     pd = r["pitch_diameter"]
     assert r["pitch_diameter_simple"] > pd
-    # computed from the ISO 965-2 band 8.994..8.862 (§1 [P]) and travel = radial / cos 29.5°
+    # computed from the ISO 965-2 band 8.994..8.862 (ISO 965-1/-2 [P]) and travel = radial / cos 29.5°
     assert r["to_max"] == pytest.approx(pd - 8.994, abs=2e-6)
     assert r["to_mid"] == pytest.approx(pd - 8.928, abs=2e-6)
     assert r["to_min"] == pytest.approx(pd - 8.862, abs=2e-6)
@@ -93,7 +94,7 @@ def test_inch_thread_reading_in_its_own_unit(capsys):
     d = run_json(capsys, "1/4-20 UNC-2A", "--wire", ".029", "--reading", ".2585")
     assert d["wire"] == pytest.approx(0.029)
     assert d["reading"]["state"] == "in_band"
-    # ASME B1.1 1/4-20 UNC-2A PD 0.2164 / 0.2127 (§2 [P])
+    # ASME B1.1 1/4-20 UNC-2A PD 0.2164 / 0.2127 (ASME B1.1 [P])
     assert 0.2127 <= d["reading"]["pitch_diameter"] <= 0.2164
 
 

@@ -219,6 +219,11 @@ BAD = [
     ("empty lathe name", 'name = "Pellingham 260 (demo)"', 'name = " "', "lathe.name", 'name = " "'),
     ("zero spindle gear", "spindle_gear = 60 ", "spindle_gear = 0 ", "indexing.spindle_gear",
      "spindle_gear = 0"),
+    ("unknown key in favourites", "threads = [", "thread = [", "favourites.thread", "thread = ["),
+    ("favourites not a list", 'threads = ["M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A"]',
+     'threads = "M12x1.75-6g"', "favourites.threads", "threads ="),
+    ("a favourite not text", 'threads = ["M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A"]',
+     'threads = ["M12x1.75-6g", 10]', "favourites.threads", "threads ="),
 ]
 
 
@@ -402,6 +407,53 @@ def test_named_config_that_is_missing(clean_env, monkeypatch, tmp_path, how):
             find_config(missing)
     with pytest.raises(ConfigError):     # a directory is not a config file either
         find_config(tmp_path)
+
+
+# --- favourites -------------------------------------------------------------------------------------
+
+def test_sample_favourites_load_as_designations():
+    c = load_config(sample_config_path())
+    assert c.favourites == ("M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A")
+    assert c.problems == ()
+
+
+def test_favourites_are_written_as_the_standard_writes_them():
+    c = read(edited('threads = ["M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A"]',
+                    'threads = ["m12x1.75-6g", "M12x1.75-6g", "2BA normal"]'))
+    assert c.favourites == ("M12x1.75-6g", "2BA normal")      # one each, as parse prints it
+
+
+def test_a_bad_favourite_is_reported_and_the_others_kept(tmp_path, capsys):
+    text = edited('threads = ["M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A"]',
+                  'threads = [\n  "M12x1.75-6g",\n  "M10x1.6-6g",\n  "3/8-16 UNC-2A",\n]')
+    c = read(text)
+    assert c.favourites == ("M12x1.75-6g", "3/8-16 UNC-2A")
+    assert len(c.problems) == 1
+    problem = c.problems[0]
+    assert "key 'favourites.threads'" in problem and "'M10x1.6-6g'" in problem
+    line = line_with(text, '"M10x1.6-6g"')
+    assert f"line {line}" in problem                      # the item's own line
+    assert "not in ISO 261" in problem                     # what the standard says is wrong
+    p = tmp_path / "config.toml"
+    p.write_text(text, encoding="utf-8")
+    assert check_config_command(str(p)) == 2               # --check-config says so
+    assert "M10x1.6-6g" in capsys.readouterr().err
+
+
+def test_no_favourites_section_is_fine():
+    start = SAMPLE.index("[favourites]")
+    c = read(SAMPLE[:start])
+    assert c.favourites == () and c.problems == ()
+
+
+# --- where the config is, in one line ---------------------------------------------------------------
+
+def test_short_path_names_the_home_and_shopterm_folders(monkeypatch, tmp_path):
+    monkeypatch.setenv("HOME", str(tmp_path))
+    assert cfg.short_path(tmp_path / ".config" / "shopterm" / "config.toml") == \
+        "~/.config/shopterm/config.toml"
+    assert cfg.short_path(sample_config_path()) == "<shopterm>/sample_config.toml"
+    assert cfg.short_path("/etc/shopterm.toml") == "/etc/shopterm.toml"
 
 
 # --- shopterm --check-config ------------------------------------------------------------------------

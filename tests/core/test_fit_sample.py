@@ -21,7 +21,7 @@ def test_defaults_are_stated():
 
 def test_nut_to_fit_a_sample_bolt():
     m10 = parse("M10x1.5-6g")
-    e = 8.95        # inside M10x1.5-6g d2 8.994 / 8.862 (ISO 965-2, published-values §1)
+    e = 8.95        # inside M10x1.5-6g d2 8.994 / 8.862 (ISO 965-2)
     t = target_from_sample(m10, "internal", sample_pd=e)
     assert t.spec.family == "special" and t.spec.kind == "internal"
     assert t.pd_min == pytest.approx(e + 0.05, abs=1e-9)     # computed from D2 min = E + c
@@ -55,7 +55,7 @@ def test_designation_round_trips_to_the_same_band():
 
 
 def test_band_beyond_basic_moves_the_nominal_size():
-    # M10x1.5 basic D2 = 10 − 0.649519 × 1.5 = 9.026 (ISO 68-1, published-values §1)
+    # M10x1.5 basic D2 = 10 − 0.649519 × 1.5 = 9.026 (ISO 68-1)
     t = target_from_sample(parse("M10x1.5-6g"), "internal", sample_pd=8.95)
     assert t.pd_min == pytest.approx(9.0, abs=1e-9)           # computed: 8.95 + 0.05
     assert t.spec.major == pytest.approx(10 - (9.026 - 9.0), abs=5e-4)
@@ -65,8 +65,8 @@ def test_band_beyond_basic_moves_the_nominal_size():
 def test_sample_over_wires():
     thread = parse("1/4-20 UNC-2A")
     p = 25.4 / 20
-    w = 0.029 * IN                   # common wire size .029 in (published-values §5)
-    true_pd = 0.2150 * IN            # inside 2A PD 0.2164 / 0.2127 in (ASME B1.1, §2)
+    w = 0.029 * IN                   # common wire size .029 in (NBS Handbook H28, three-wire method)
+    true_pd = 0.2150 * IN            # inside 2A PD 0.2164 / 0.2127 in (ASME B1.1)
     m = wires.over_wires_exact(true_pd, w, thread.form, p)
     t = target_from_sample(thread, "internal", wire=w, readings=[m, m])
     assert t.sample_pd == pytest.approx(true_pd, abs=1e-6)   # inverse of the exact model
@@ -88,7 +88,7 @@ def test_spread_readings_warn():
 
 
 def test_sample_outside_the_standard_band_is_noted():
-    # below M10x1.5-6g d2 min 8.862 (ISO 965-2, published-values §1)
+    # below M10x1.5-6g d2 min 8.862 (ISO 965-2)
     t = target_from_sample(parse("M10x1.5-6g"), "internal", sample_pd=8.80)
     assert any("below the M10x1.5-6g band" in n for n in t.notes)
 

@@ -86,7 +86,7 @@ def ratio_key(request, monkeypatch):
 # Published trains
 
 def test_rose_compound_train_makes_11_tpi_on_4_tpi_leadscrew():
-    # Rose, Modern Machine Shop Practice (published-values.md §8): 4 tpi leadscrew,
+    # Rose, Modern Machine Shop Practice: 4 tpi leadscrew,
     # 36/48 x 66/18 -> 11 tpi. The printed fraction is work tpi / leadscrew tpi
     # (4 x 36x66/(48x18) = 11), so 48 and 18 are the drivers, 36 and 66 the driven.
     ls = Leadscrew.from_tpi(4)
@@ -100,7 +100,7 @@ def test_rose_compound_train_makes_11_tpi_on_4_tpi_leadscrew():
 
 
 def test_120_127_on_8_tpi_makes_3mm_exactly():
-    # published-values.md §8: 8 tpi leadscrew x 120/127 = 3.000 mm
+    # Rose, Modern Machine Shop Practice: 8 tpi leadscrew x 120/127 = 3.000 mm
     ls = Leadscrew.from_tpi(8)
     assert lead_made(ls, (120,), (127,)) == Fraction(3)
     best = find_trains(ls, 3.0, SET_FIVES_127)[0]
@@ -110,9 +110,9 @@ def test_120_127_on_8_tpi_makes_3mm_exactly():
 
 
 @pytest.mark.parametrize("driver, driven, published_pct", [
-    (80, 63, -0.0125),   # published-values.md §8 [C]: 80/63 vs 127/100, -0.0125 %
-    (47, 37, +0.0213),   # published-values.md §8 [C]: 47/37 vs 127/100, +0.0213 %
-    (63, 50, -0.787),    # published-values.md §8 [C]: 63/50 vs 127/100, -0.787 %
+    (80, 63, -0.0125),   # computed: 80/63 vs 127/100, -0.0125 %
+    (47, 37, +0.0213),   # computed: 47/37 vs 127/100, +0.0213 %
+    (63, 50, -0.787),    # computed: 63/50 vs 127/100, -0.787 %
 ])
 def test_approximations_of_127_over_100(driver, driven, published_pct):
     # Inch on a metric leadscrew with no 127 gear: 10 tpi (2.54 mm) on a 2 mm leadscrew needs
@@ -130,7 +130,7 @@ def test_approximations_of_127_over_100(driver, driven, published_pct):
 
 
 def test_metric_on_inch_leadscrew_needs_127_for_exact():
-    # published-values.md §8: 127 = 5 x 25.4 gives exact metric from an inch leadscrew
+    # Rose, Modern Machine Shop Practice: 127 = 5 x 25.4 gives exact metric from an inch leadscrew
     ls = Leadscrew.from_tpi(8)
     without = [t for t in SET_FIVES_127 if t != 127]
     with_127 = find_trains(ls, 1.5, SET_FIVES_127)
@@ -261,7 +261,7 @@ def test_gearbox_positions():
 
 
 def test_fixed_ratio_in_the_drive():
-    # a 1:2 stud halves every lead (published-values.md §8 formula with the fixed ratio)
+    # a 1:2 stud halves every lead (Rose, Modern Machine Shop Practice formula with the fixed ratio)
     ls = Leadscrew.from_tpi(8)
     t = find_trains(ls, 1.5, SET_FIVES_127, fixed_ratio=Fraction(1, 2))[0]
     assert t.exact and t.ratio == Fraction(120, 127)

@@ -14,9 +14,9 @@ from tests.glyphs import (FONT_DIR, FONTS, console_glyphs, list_path, missing_gl
                           parse_psf, read_list)
 
 # Present in the Debian console fonts: the box-drawing block, full block, light/medium shade,
-# bullet. # /work/shared/PLATFORM.md (verified against console-setup-linux fonts)
+# bullet. # Debian console-setup-linux fonts Lat15-Fixed16, Uni2-Fixed16
 PRESENT = "█░▒•─│┌┐└┘├┤┬┴┼"
-# Missing from them (print as a diamond). # /work/shared/PLATFORM.md
+# Missing from them (print as a diamond). # the same fonts' Unicode tables
 ABSENT = "▁▔▊▎▏▌"
 
 

@@ -119,14 +119,14 @@ TRUE_FIRST = [
     ("#10-24 UNC", 0.190 * IN, dict(tpi=24), None, 0.05),    # ASME B1.1: #10 = 0.190 in, 24 tpi
     ("5/16-18 UNC", 0.3125 * IN, dict(tpi=18), 60, 0.06),    # ASME B1.1: 5/16-18 UNC
     ("1-8 UNC", 1.0 * IN, dict(tpi=8), 60, 0.10),            # ASME B1.1: 1-8 UNC
-    ("1/4 BSW", 0.25 * IN, dict(tpi=20), 55, 0.03),          # BS 84: 1/4 BSW 20 tpi (published-values §3)
-    ("1 BSW", 1.0 * IN, dict(tpi=8), 55, 0.10),              # BS 84: 1 BSW 8 tpi (published-values §3)
-    ("3/8 BSF", 0.375 * IN, dict(tpi=20), None, 0.05),       # BS 84: 3/8 BSF 20 tpi (published-values §3)
-    ("1/4x40 ME", 0.25 * IN, dict(tpi=40), None, 0.03),      # ME series 1/4 x 40 (published-values §3)
-    ("3/8x32 ME", 0.375 * IN, dict(tpi=32), 55, 0.03),       # ME series 3/8 x 32 (published-values §3)
-    ("2BA", 4.7, dict(pitch=0.81), None, 0.04),              # BS 93: 2BA 4.7 / 0.81 (published-values §4)
-    ("0BA", 6.0, dict(pitch=1.0), 47.5, 0.03),               # BS 93: 0BA 6.0 / 1.00 (published-values §4)
-    ("4BA", 3.6, dict(pitch=0.66), None, 0.03),              # BS 93: 4BA 3.6 / 0.66 (published-values §4)
+    ("1/4 BSW", 0.25 * IN, dict(tpi=20), 55, 0.03),          # BS 84: 1/4 BSW 20 tpi
+    ("1 BSW", 1.0 * IN, dict(tpi=8), 55, 0.10),              # BS 84: 1 BSW 8 tpi
+    ("3/8 BSF", 0.375 * IN, dict(tpi=20), None, 0.05),       # BS 84: 3/8 BSF 20 tpi
+    ("1/4x40 ME", 0.25 * IN, dict(tpi=40), None, 0.03),      # ME series 1/4 x 40 (BS 84)
+    ("3/8x32 ME", 0.375 * IN, dict(tpi=32), 55, 0.03),       # ME series 3/8 x 32 (BS 84)
+    ("2BA", 4.7, dict(pitch=0.81), None, 0.04),              # BS 93: 2BA 4.7 / 0.81
+    ("0BA", 6.0, dict(pitch=1.0), 47.5, 0.03),               # BS 93: 0BA 6.0 / 1.00
+    ("4BA", 3.6, dict(pitch=0.66), None, 0.03),              # BS 93: 4BA 3.6 / 0.66
 ]
 
 
@@ -157,7 +157,7 @@ def test_tpi_entry_matches_a_metric_pitch_only_when_close():
 
 
 def test_wear_makes_a_bolt_smaller_not_larger():
-    # M10x1.5-6g major 9.968 / 9.732 (ISO 965-2, published-values §1)
+    # M10x1.5-6g major 9.968 / 9.732 (ISO 965-2)
     def m10(result):
         return next(c for c in result.candidates if c.designation == "M10x1.5")
     under = m10(identify(major=9.732 - 0.05, pitch=1.5, limit=20))
@@ -168,7 +168,7 @@ def test_wear_makes_a_bolt_smaller_not_larger():
 
 
 def test_nut_identified_from_its_minor_diameter():
-    # M10x1.5-6H D1 min 8.376, max 8.676 (ISO 965-2, published-values §1)
+    # M10x1.5-6H D1 min 8.376, max 8.676 (ISO 965-2)
     result = identify(minor=8.45, pitch=1.5)
     top = result.candidates[0]
     assert top.designation == "M10x1.5"
@@ -232,11 +232,11 @@ def test_quarter_bsw_against_quarter_20_unc_needs_gauge_or_wires():
     w = float(one.expected[0].quantity.split()[1])
     p = 25.4 / 20
     # computed from M = E + W(1 + cosec a) − (P/2)·cot a (NBS H28), E from ASME B1.1 1/4-20
-    # UNC-2A PD 0.2164 / 0.2127 in (published-values §2); lead-angle term < 0.005 mm
+    # UNC-2A PD 0.2164 / 0.2127 in (ASME B1.1); lead-angle term < 0.005 mm
     unc = exp["1/4-20 UNC"]
     assert unc.high == pytest.approx(0.2164 * IN + 3 * w - 0.866025 * p, abs=0.005)
     assert unc.low == pytest.approx(0.2127 * IN + 3 * w - 0.866025 * p, abs=0.005)
-    # 1/4 BSW basic E 0.2180 in (BS 84, published-values §3), 55° constants 3.165681 / 0.960491
+    # 1/4 BSW basic E 0.2180 in (BS 84), 55° constants 3.165681 / 0.960491
     bsw = exp["1/4 BSW"]
     assert bsw.high == pytest.approx(0.2180 * IN + 3.165681 * w - 0.960491 * p, abs=0.005)
 
@@ -260,14 +260,14 @@ def test_angle_gauge_settles_bsw_against_unc():
 
 
 @pytest.mark.parametrize("true_form, true_pd, winner, loser", [
-    # 1/4-20 UNC-2A PD inside 0.2164 / 0.2127 in (ASME B1.1, published-values §2)
+    # 1/4-20 UNC-2A PD inside 0.2164 / 0.2127 in (ASME B1.1)
     (ISO_60, 0.2150 * IN, "1/4-20 UNC", "1/4 BSW"),
-    # 1/4 BSW basic E 0.2180 in (BS 84, published-values §3), a little flank wear
+    # 1/4 BSW basic E 0.2180 in (BS 84), a little flank wear
     (WHITWORTH_55, 0.2180 * IN - 0.02, "1/4 BSW", "1/4-20 UNC"),
 ])
 def test_two_wire_sizes_tell_the_form(true_form, true_pd, winner, loser):
     p = 25.4 / 20
-    w1, w2 = 0.029 * IN, 0.040 * IN       # common inch wire sizes .029 and .040 (published-values §5)
+    w1, w2 = 0.029 * IN, 0.040 * IN       # common inch wire sizes .029 and .040 (NBS Handbook H28, three-wire method)
     readings = [(w, wires.over_wires_exact(true_pd, w, true_form, p)) for w in (w1, w2)]
     result = identify(major=6.30, tpi=20, wires=readings)
     assert result.candidates[0].designation == winner

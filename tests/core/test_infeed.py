@@ -13,8 +13,8 @@ from shopterm.lathe.machine import Dial, Lathe, Leadscrew
 
 
 @pytest.mark.parametrize("angle, factor", [
-    (29.5, 1.14896),   # published-values.md §6 [C], 1/cos 29.5°
-    (27.5, 1.12738),   # published-values.md §6 [C], 1/cos 27.5°
+    (29.5, 1.14896),   # computed, 1/cos 29.5°
+    (27.5, 1.12738),   # computed, 1/cos 27.5°
 ])
 def test_published_compound_factors(angle, factor):
     assert compound_factor(angle) == pytest.approx(factor, abs=5e-6)
@@ -23,7 +23,7 @@ def test_published_compound_factors(angle, factor):
 
 
 @pytest.mark.parametrize("method, form, true", [
-    ("modified", 60, 29.5),   # US Navy training manual via published-values.md §6
+    ("modified", 60, 29.5),   # US Navy machinery training manual
     ("modified", 55, 27.0),   # half of 55 less the 0.5° default offset (task rule)
     ("flank", 60, 30.0),      # half the included angle
     ("flank", 55, 27.5),
@@ -42,7 +42,7 @@ def _lathe(zero):
 
 
 def test_scale_reading_bed_zero():
-    # published-values.md §6 [M]: scales zeroed along the bed read 60.5 for 29.5
+    # US Navy machinery training manual (from memory): scales zeroed along the bed read 60.5 for 29.5
     m = infeed_method("modified", 60, lathe=_lathe("bed"))
     assert m.scale_reading_deg == pytest.approx(60.5)
     assert m.true_angle_deg == pytest.approx(29.5)
@@ -53,7 +53,7 @@ def test_scale_reading_bed_zero():
 
 def test_travel_and_inverse():
     m = infeed_method("modified", 60)
-    assert m.feed_travel(0.6) == pytest.approx(0.6 * 1.14896, abs=1e-5)  # §6 factor
+    assert m.feed_travel(0.6) == pytest.approx(0.6 * 1.14896, abs=1e-5)  # computed factor, 1/cos 29.5°
     assert m.radial_for(m.feed_travel(0.6)) == pytest.approx(0.6)
     assert m.feeds_with == "compound"
     assert infeed_method("radial", 60).feeds_with == "cross-slide"

@@ -1,8 +1,8 @@
 """ISO metric family: limits of size against ISO 965-2 values, ISO 965-1 table cells, designations.
 
-Check values come from ../shared/reference/published-values.md §1 (ISO 965-2 limits as printed in
-published fastener and tap tables) and ../shared/reference/iso965-1-tables.md (ISO 965-1 tables,
-cross-checked against FED-STD-H28/21B where that document quotes a value).
+Check values come from (ISO 965-2 limits as printed in
+published fastener and tap tables) and ISO 965-1 (its tables as transcribed in two independent
+published copies compared cell by cell, cross-checked against FED-STD-H28/21B where that document quotes a value).
 """
 
 from __future__ import annotations
@@ -22,25 +22,25 @@ from shopterm.standards.forms import ISO_60
 
 # (designation, d max, d min, d2 max, d2 min, d3 max or None)
 EXTERNAL_6G = [
-    ("M3x0.5-6g", 2.980, 2.874, 2.655, 2.580, None),    # ISO 965-2, M3x0.5-6g (published-values §1 [P])
-    ("M5x0.8-6g", 4.976, 4.826, 4.456, 4.361, None),    # ISO 965-2, M5x0.8-6g (published-values §1 [P])
-    ("M6x1-6g", 5.974, 5.794, 5.324, 5.212, None),      # ISO 965-2, M6x1-6g (published-values §1 [P])
-    ("M10x1.5-6g", 9.968, 9.732, 8.994, 8.862, 8.128),  # ISO 965-2, M10x1.5-6g (published-values §1 [P])
-    ("M8x1-6g", 7.974, 7.794, 7.324, 7.212, None),      # ISO 965-2, M8x1-6g (published-values §1 [P])
-    ("M10x1.25-6g", 9.972, 9.760, 9.160, 9.042, None),  # ISO 965-2, M10x1.25-6g (published-values §1 [P])
-    ("M12x1.5-6g", 11.968, 11.732, 10.994, 10.854, None),  # ISO 965-2, M12x1.5-6g (published-values §1 [P])
-    ("M16x1.5-6g", 15.968, 15.732, 14.994, 14.854, None),  # ISO 965-2, M16x1.5-6g (published-values §1 [P])
+    ("M3x0.5-6g", 2.980, 2.874, 2.655, 2.580, None),    # ISO 965-2, M3x0.5-6g
+    ("M5x0.8-6g", 4.976, 4.826, 4.456, 4.361, None),    # ISO 965-2, M5x0.8-6g
+    ("M6x1-6g", 5.974, 5.794, 5.324, 5.212, None),      # ISO 965-2, M6x1-6g
+    ("M10x1.5-6g", 9.968, 9.732, 8.994, 8.862, 8.128),  # ISO 965-2, M10x1.5-6g
+    ("M8x1-6g", 7.974, 7.794, 7.324, 7.212, None),      # ISO 965-2, M8x1-6g
+    ("M10x1.25-6g", 9.972, 9.760, 9.160, 9.042, None),  # ISO 965-2, M10x1.25-6g
+    ("M12x1.5-6g", 11.968, 11.732, 10.994, 10.854, None),  # ISO 965-2, M12x1.5-6g
+    ("M16x1.5-6g", 15.968, 15.732, 14.994, 14.854, None),  # ISO 965-2, M16x1.5-6g
 ]
 
 # (designation, D1 min, D1 max or None, D2 min, D2 max)
 INTERNAL_6H = [
-    ("M3x0.5-6H", None, None, 2.675, 2.775),           # ISO 965-2, M3x0.5-6H (published-values §1 [P])
-    ("M5x0.8-6H", None, None, 4.480, 4.605),           # ISO 965-2, M5x0.8-6H (published-values §1 [P])
-    ("M6x1-6H", None, None, 5.350, 5.500),             # ISO 965-2, M6x1-6H (published-values §1 [P])
-    ("M10x1.5-6H", 8.376, 8.676, 9.026, 9.206),        # ISO 965-2, M10x1.5-6H (published-values §1 [P])
-    ("M12x1.75-6H", 10.106, 10.441, 10.863, 11.063),   # ISO 965-2, M12x1.75-6H (published-values §1 [P])
-    ("M10x1.25-6H", 8.647, 8.912, 9.188, 9.348),       # ISO 965-2, M10x1.25-6H (published-values §1 [P])
-    ("M12x1.5-6H", 10.376, 10.676, 11.026, 11.216),    # ISO 965-2, M12x1.5-6H (published-values §1 [P])
+    ("M3x0.5-6H", None, None, 2.675, 2.775),           # ISO 965-2, M3x0.5-6H
+    ("M5x0.8-6H", None, None, 4.480, 4.605),           # ISO 965-2, M5x0.8-6H
+    ("M6x1-6H", None, None, 5.350, 5.500),             # ISO 965-2, M6x1-6H
+    ("M10x1.5-6H", 8.376, 8.676, 9.026, 9.206),        # ISO 965-2, M10x1.5-6H
+    ("M12x1.75-6H", 10.106, 10.441, 10.863, 11.063),   # ISO 965-2, M12x1.75-6H
+    ("M10x1.25-6H", 8.647, 8.912, 9.188, 9.348),       # ISO 965-2, M10x1.25-6H
+    ("M12x1.5-6H", 10.376, 10.676, 11.026, 11.216),    # ISO 965-2, M12x1.5-6H
 ]
 
 
@@ -82,17 +82,17 @@ def _round3(x):
 # (designation, d, P, es [µm], Td [µm], Td2 [µm], d max, d min, d2 max, d2 min as listed)
 DERIVED_6G = [
     # M12x1.75-6g: es g(1.75) = -34 (Table 1), Td6(1.75) = 265 (Td table), Td2 grade 6
-    # (11.2-22.4, P1.75) = 150 (Td2 table), iso965-1-tables.md
-    ("M12-6g", 12.0, 1.75, -34, 265, 150, 11.966, 11.701, 10.829, 10.679),  # published-values §1 [C]
-    # M24x3-6g: es g(3) = -48, Td6(3) = 375, Td2 grade 6 (22.4-45, P3) = 200, iso965-1-tables.md
-    ("M24-6g", 24.0, 3.0, -48, 375, 200, 23.952, 23.577, 22.003, 21.803),   # published-values §1 [C]
+    # (11.2-22.4, P1.75) = 150 (Td2 table), ISO 965-1 tables (two published copies compared)
+    ("M12-6g", 12.0, 1.75, -34, 265, 150, 11.966, 11.701, 10.829, 10.679),  # ISO 68-1 and ISO 965-1/-2 (computed)
+    # M24x3-6g: es g(3) = -48, Td6(3) = 375, Td2 grade 6 (22.4-45, P3) = 200, ISO 965-1 tables (two published copies compared)
+    ("M24-6g", 24.0, 3.0, -48, 375, 200, 23.952, 23.577, 22.003, 21.803),   # ISO 68-1 and ISO 965-1/-2 (computed)
 ]
 
 
 @pytest.mark.parametrize("text,d,p,es,td,td2,dmax,dmin,d2max,d2min", DERIVED_6G)
 def test_computed_rows_rederived(text, d, p, es, td, td2, dmax, dmin, d2max, d2min):
     # computed from d max = d + es, d min = d max - Td, d2 = d - 0.649519P (ISO 68-1),
-    # d2 max = d2 + es, d2 min = d2 max - Td2 (ISO 965-1), published-values.md §1
+    # d2 max = d2 + es, d2 min = d2 max - Td2 (ISO 965-1)
     d2 = d - 0.649519 * p
     mine = (_round3(d + es / 1000), _round3(d + es / 1000 - td / 1000),
             _round3(d2 + es / 1000), _round3(d2 + es / 1000 - td2 / 1000))
@@ -106,7 +106,7 @@ def test_computed_rows_rederived(text, d, p, es, td, td2, dmax, dmin, d2max, d2m
 
 
 def test_minor_max_is_d3_plus_es():
-    # computed from d3 = d - 1.226869P (ISO 68-1 / published-values §1), d3 max = d3 + es with
+    # computed from d3 = d - 1.226869P (ISO 68-1), d3 max = d3 + es with
     # es g(1.75) = -34 µm (ISO 965-1 Table 1): 12 - 2.14702075 - 0.034 = 9.81897925
     lim = iso.limits(iso.parse("M12-6g"))
     assert lim.minor_max == pytest.approx(_round3(12 - 1.226869 * 1.75 - 0.034), abs=1e-9)
@@ -117,10 +117,10 @@ def test_minor_max_is_d3_plus_es():
 # ----------------------------------------------------------------------------- basic profile
 
 @pytest.mark.parametrize("text,h3", [
-    ("M3", 0.307),    # tap maker's table of ISO 68 values, published-values §1 [P]
-    ("M6", 0.613),    # tap maker's table of ISO 68 values, published-values §1 [P]
-    ("M10", 0.920),   # tap maker's table of ISO 68 values, published-values §1 [P]
-    ("M12", 1.074),   # tap maker's table of ISO 68 values, published-values §1 [P]
+    ("M3", 0.307),    # tap maker's table of ISO 68 values
+    ("M6", 0.613),    # tap maker's table of ISO 68 values
+    ("M10", 0.920),   # tap maker's table of ISO 68 values
+    ("M12", 1.074),   # tap maker's table of ISO 68 values
 ])
 def test_external_thread_depth_h3(text, h3):
     lim = iso.limits(iso.parse(text))
@@ -133,7 +133,7 @@ def test_external_thread_depth_h3(text, h3):
 def test_internal_depth_h1_and_basic_minor(text):
     lim = iso.limits(iso.parse(text))
     p = lim.spec.pitch
-    # computed from H1 = 5/8 H, H = sqrt(3)/2 P (ISO 68-1, published-values §1)
+    # computed from H1 = 5/8 H, H = sqrt(3)/2 P (ISO 68-1)
     assert lim.depth == pytest.approx(5 / 8 * math.sqrt(3) / 2 * p, abs=1e-6)
     # computed from D1 = D - 2 H1 = D - 1.082532P (ISO 68-1)
     assert lim.basic_minor == pytest.approx(lim.spec.major - 2 * 5 / 8 * math.sqrt(3) / 2 * p,
@@ -143,7 +143,7 @@ def test_internal_depth_h1_and_basic_minor(text):
 def test_form_and_root_radius():
     lim = iso.limits(iso.parse("M10x1.5-6g"))
     assert lim.spec.form is ISO_60
-    assert lim.root_radius_min == pytest.approx(0.125 * 1.5)  # ISO 965-1 min root radius 0.125P, published-values §1
+    assert lim.root_radius_min == pytest.approx(0.125 * 1.5)  # ISO 965-1 min root radius 0.125P
     # computed from d2 = d - 3/8 sqrt(3) P (ISO 68-1; 0.649519P as printed)
     assert lim.basic_pd == pytest.approx(10 - 3 / 8 * math.sqrt(3) * 1.5, abs=1e-6)
 
@@ -162,10 +162,10 @@ def test_lead_angle_m10():
     ("g", 1.25, -28),   # FED-STD-H28/21B, es g for P1.25
     ("g", 1.5, -32),    # FED-STD-H28/21B, es g for P1.5
     ("e", 1.5, -67),    # FED-STD-H28/21B, es e for P1.5
-    ("h", 1.5, 0),      # ISO 965-1 Table 1 (iso965-1-tables.md), es h = 0
-    ("H", 2.0, 0),      # ISO 965-1 Table 1 (iso965-1-tables.md), EI H = 0
-    ("G", 1.5, 32),     # ISO 965-1 Table 1 (iso965-1-tables.md), EI G(1.5) = +32
-    ("f", 0.35, -34),   # ISO 965-1 Table 1 (iso965-1-tables.md)
+    ("h", 1.5, 0),      # ISO 965-1 Table 1, es h = 0
+    ("H", 2.0, 0),      # ISO 965-1 Table 1, EI H = 0
+    ("G", 1.5, 32),     # ISO 965-1 Table 1, EI G(1.5) = +32
+    ("f", 0.35, -34),   # ISO 965-1 Table 1
 ])
 def test_fundamental_deviations(position, pitch, um):
     assert iso.fundamental_deviation(position, pitch) == pytest.approx(um / 1000)
@@ -185,29 +185,29 @@ def test_tolerances_cross_checked_with_fed_std():
 
 
 def test_stored_table_not_clause13_formula():
-    # iso965-1-tables.md: M3x0.5 Td2 grade 6 is 75 in the table (formula 90 P^0.4 d^0.1 gives 80),
+    # ISO 965-1 tables (two published copies compared): M3x0.5 Td2 grade 6 is 75 in the table (formula 90 P^0.4 d^0.1 gives 80),
     # M10x1.5 TD2 grade 6 is 180 (formula 170)
     assert iso.pd_tolerance(6, 3, 0.5) == pytest.approx(0.075)
     assert iso.pd_tolerance(6, 10, 1.5, "internal") == pytest.approx(0.180)
 
 
 @pytest.mark.parametrize("d,pitch,um", [
-    (1.4, 0.3, 56),    # iso965-1-tables.md Td2 grade 6: 1.4 is 'up to and including' of 0.99-1.4
-    (45, 1.5, 150),    # iso965-1-tables.md Td2 grade 6, row 22.4-45 (45 included)
-    (48, 1.5, 160),    # iso965-1-tables.md Td2 grade 6, row 45-90 (over 45)
-    (5.6, 0.8, 95),    # iso965-1-tables.md Td2 grade 6, row 2.8-5.6
+    (1.4, 0.3, 56),    # ISO 965-1 tables (two published copies compared) Td2 grade 6: 1.4 is 'up to and including' of 0.99-1.4
+    (45, 1.5, 150),    # ISO 965-1 tables (two published copies compared) Td2 grade 6, row 22.4-45 (45 included)
+    (48, 1.5, 160),    # ISO 965-1 tables (two published copies compared) Td2 grade 6, row 45-90 (over 45)
+    (5.6, 0.8, 95),    # ISO 965-1 tables (two published copies compared) Td2 grade 6, row 2.8-5.6
 ])
 def test_diameter_range_edges(d, pitch, um):
     assert iso.pd_tolerance(6, d, pitch) == pytest.approx(um / 1000)
 
 
 @pytest.mark.parametrize("call", [
-    lambda: iso.fundamental_deviation("e", 0.4),      # iso965-1-tables.md: e '-' for P < 0.5
-    lambda: iso.fundamental_deviation("f", 0.3),      # iso965-1-tables.md: f '-' for P < 0.35
-    lambda: iso.major_tolerance(8, 0.5),              # iso965-1-tables.md: Td8 '-' at P0.5
-    lambda: iso.minor_tolerance(6, 0.25),             # iso965-1-tables.md: TD1_6 '-' at P0.25
-    lambda: iso.pd_tolerance(8, 3, 0.5),              # iso965-1-tables.md: Td2_8 '-' 2.8-5.6 P0.5
-    lambda: iso.pd_tolerance(8, 30, 1, "internal"),   # iso965-1-tables.md: TD2_8 '-' 22.4-45 P1
+    lambda: iso.fundamental_deviation("e", 0.4),      # ISO 965-1 tables (two published copies compared): e '-' for P < 0.5
+    lambda: iso.fundamental_deviation("f", 0.3),      # ISO 965-1 tables (two published copies compared): f '-' for P < 0.35
+    lambda: iso.major_tolerance(8, 0.5),              # ISO 965-1 tables (two published copies compared): Td8 '-' at P0.5
+    lambda: iso.minor_tolerance(6, 0.25),             # ISO 965-1 tables (two published copies compared): TD1_6 '-' at P0.25
+    lambda: iso.pd_tolerance(8, 3, 0.5),              # ISO 965-1 tables (two published copies compared): Td2_8 '-' 2.8-5.6 P0.5
+    lambda: iso.pd_tolerance(8, 30, 1, "internal"),   # ISO 965-1 tables (two published copies compared): TD2_8 '-' 22.4-45 P1
     lambda: iso.fundamental_deviation("d", 1.0),      # ISO 965-1 Table 1 has no position d
 ])
 def test_missing_cells_are_refused(call):
@@ -230,7 +230,7 @@ def test_data_files_name_their_source():
 # ----------------------------------------------------------------------------- classes
 
 def test_refused_e_below_half_mm():
-    # iso965-1-tables.md: Table 1 has no e for P < 0.5
+    # ISO 965-1 tables (two published copies compared): Table 1 has no e for P < 0.5
     with pytest.raises(UnsupportedClass) as err:
         iso.parse("M2x0.4-6e")
     msg = str(err.value)
@@ -240,16 +240,16 @@ def test_refused_e_below_half_mm():
 
 def test_refused_6e_at_p035_and_8g_at_p05():
     with pytest.raises(UnsupportedClass, match="6g"):
-        iso.parse("M3x0.35-6e")      # iso965-1-tables.md: e '-' at P0.35
+        iso.parse("M3x0.35-6e")      # ISO 965-1 tables (two published copies compared): e '-' at P0.35
     with pytest.raises(UnsupportedClass, match="grade 8"):
-        iso.parse("M3-8g")           # iso965-1-tables.md: Td2_8 and Td8 '-' at P0.5
+        iso.parse("M3-8g")           # ISO 965-1 tables (two published copies compared): Td2_8 and Td8 '-' at P0.5
 
 
 @pytest.mark.parametrize("text,exc", [
-    ("M1x0.2-6H", UnsupportedClass),    # iso965-1-tables.md: TD2_6/TD1_6 '-' at P0.2
-    ("M1x0.2-6f", UnsupportedClass),    # iso965-1-tables.md: f '-' for P < 0.35
+    ("M1x0.2-6H", UnsupportedClass),    # ISO 965-1 tables (two published copies compared): TD2_6/TD1_6 '-' at P0.2
+    ("M1x0.2-6f", UnsupportedClass),    # ISO 965-1 tables (two published copies compared): f '-' for P < 0.35
     ("M10-6d", UnsupportedClass),       # ISO 965-1 Table 1: positions e f g h, G H
-    ("M10-6E", UnsupportedClass),       # iso965-1-tables.md holds internal G and H only
+    ("M10-6E", UnsupportedClass),       # ISO 965-1 tables (two published copies compared) holds internal G and H only
     ("M10-2g", UnsupportedClass),       # ISO 965-1: Td2 grades 3..9, Td 4, 6, 8
     ("M10-3g", UnsupportedClass),       # ISO 965-1: no Td (crest) grade 3
     ("M10-9H", UnsupportedClass),       # ISO 965-1: TD2 grades 4..8
@@ -268,20 +268,20 @@ def test_classes_lists_only_cells_that_exist():
     assert ext[:7] == ["4h", "6e", "6f", "6g", "6h", "8g", "8e"]   # from memory, ISO 965-1 classes
     assert {"4h", "6e", "6f", "6g", "6h", "8g", "5g6g", "7g6g"} <= set(ext)
     small = iso.classes(iso.parse("M2x0.4"))
-    assert "6e" not in small and "8g" not in small and "6g" in small  # iso965-1-tables.md: e, Td8 '-'
+    assert "6e" not in small and "8g" not in small and "6g" in small  # ISO 965-1 tables (two published copies compared): e, Td8 '-'
     internal = iso.classes(iso.parse("M10-6H"))
     assert internal[:6] == ["4H", "5H", "6G", "6H", "7G", "7H"]   # from memory, ISO 965-1 classes
     assert all(c[-1].isupper() for c in internal)
-    assert iso.classes(iso.parse("M1x0.2").with_(kind="internal")) == ["4H"]  # iso965-1-tables.md
+    assert iso.classes(iso.parse("M1x0.2").with_(kind="internal")) == ["4H"]  # ISO 965-1 tables (two published copies compared)
     for c in ext + internal:      # every listed class gives limits
         assert iso.limits(iso.parse(f"M10-{c}")).pd_tolerance > 0
 
 
 @pytest.mark.parametrize("text,d2_band_um,crest_band_um", [
-    ("M10-4h6h", 85, 236),     # iso965-1-tables.md: Td2 grade 4 (5.6-11.2, P1.5) = 85, Td6(1.5) = 236
-    ("M10-5g6g", 106, 236),    # iso965-1-tables.md: Td2 grade 5 = 106, Td6 = 236
-    ("M10-7g6g", 170, 236),    # iso965-1-tables.md: Td2 grade 7 = 170, Td6 = 236
-    ("M10-5H6H", 140, 300),    # iso965-1-tables.md: TD2 grade 5 (5.6-11.2, P1.5) = 140, TD1_6(1.5) = 300
+    ("M10-4h6h", 85, 236),     # ISO 965-1 tables (two published copies compared): Td2 grade 4 (5.6-11.2, P1.5) = 85, Td6(1.5) = 236
+    ("M10-5g6g", 106, 236),    # ISO 965-1 tables (two published copies compared): Td2 grade 5 = 106, Td6 = 236
+    ("M10-7g6g", 170, 236),    # ISO 965-1 tables (two published copies compared): Td2 grade 7 = 170, Td6 = 236
+    ("M10-5H6H", 140, 300),    # ISO 965-1 tables (two published copies compared): TD2 grade 5 (5.6-11.2, P1.5) = 140, TD1_6(1.5) = 300
 ])
 def test_combined_classes_pitch_grade_then_crest_grade(text, d2_band_um, crest_band_um):
     spec = iso.parse(text)
@@ -311,7 +311,7 @@ def test_no_class_uses_6g_or_6h_with_note():
 
 
 def test_provisional_cells_are_noted():
-    # iso965-1-tables.md lists these as resting on one copy only
+    # ISO 965-1 tables (two published copies compared) lists these as resting on one copy only
     assert any("Provisional" in n for n in iso.limits(iso.parse("M10-6f")).notes)      # f for P >= 0.5
     assert any("Provisional" in n for n in iso.limits(iso.parse("M30x1.5-3h4h")).notes)  # Td2 grade 3
     assert any("Provisional" in n for n in iso.limits(iso.parse("M26x1.5-6g")).notes)  # ISO 261 pair
@@ -394,7 +394,7 @@ def test_unknown_diameter_names_neighbours():
 
 def test_disputed_and_missing_coarse():
     with pytest.raises(UnknownThread, match="One published copy"):
-        iso.parse("M30x1")            # iso965-1-tables.md: M30x1 disputed between copies
+        iso.parse("M30x1")            # ISO 965-1 tables (two published copies compared): M30x1 disputed between copies
     with pytest.raises(UnknownThread, match=r"M5\.5x0\.5"):
         iso.parse("M5.5-6g")          # ISO 261: M5.5 has no coarse pitch
 
@@ -434,7 +434,7 @@ def test_catalogue_round_trips():
 def test_catalogue_covers_iso261():
     cat = iso.catalogue()
     names = {iso.format(s) for s in cat}
-    # ISO 261 table (iso965-1-tables.md): first and last sizes, coarse and fine
+    # ISO 261 table: first and last sizes, coarse and fine
     assert {"M1-6g", "M1x0.2-6g", "M10-6g", "M10x0.75-6g", "M5.5x0.5-6g", "M68-6g",
             "M68x1.5-6g"} <= names
     # computed: the sum of the pitch counts in iso261_series (coarse where not '-', plus fines)
@@ -479,7 +479,7 @@ def test_every_listed_class_gives_a_consistent_band():
 
 def test_engagement_lengths():
     e = iso.engagement_lengths(iso.parse("M10"))
-    assert (e.short_upto, e.long_over) == (5, 15)   # iso965-1-tables.md Table 2, 5.6-11.2 P1.5 (provisional)
+    assert (e.short_upto, e.long_over) == (5, 15)   # ISO 965-1 tables (two published copies compared) Table 2, 5.6-11.2 P1.5 (provisional)
     assert e.provisional
     assert (e.group(5), e.group(10), e.group(15.1)) == ("S", "N", "L")
 
@@ -493,7 +493,7 @@ def test_registry_left_hand():
     assert iso.format(spec) == "M12x1.25-6g"
     lim = standards.limits(spec)
     # computed from d2 = 12 - 0.649519 * 1.25 (ISO 68-1), es g(1.25) = -28 µm,
-    # Td2 grade 6 (11.2-22.4, P1.25) = 132 µm (iso965-1-tables.md)
+    # Td2 grade 6 (11.2-22.4, P1.25) = 132 µm
     assert lim.pd_max == pytest.approx(_round3(12 - 0.649519 * 1.25 - 0.028), abs=1e-9)
     assert lim.pd_min == pytest.approx(_round3(12 - 0.649519 * 1.25 - 0.028 - 0.132), abs=1e-9)
 

@@ -31,7 +31,7 @@ def test_cli_limits_does_not_import_textual():
     assert "textual" not in mods
 
 
-# ---- each layer imports only the layers above it (DESIGN.md §1), read from the source ---------
+# ---- each layer imports only the layers above it (DEVELOPERS.md, Layers), read from the source ---------
 
 import ast
 from pathlib import Path

@@ -23,7 +23,7 @@ def lathe(cross=Dial("mm", 0.02, 100), compound=Dial("mm", 0.02, 100)):
 
 
 def test_published_constant_area_plan():
-    # published-values.md §6 [C]: ap 0.6 mm, 5 passes → 0.164, 0.300, 0.424, 0.520, 0.600
+    # threading-tool handbooks (constant chip area), computed: ap 0.6 mm, 5 passes → 0.164, 0.300, 0.424, 0.520, 0.600
     cums = constant_area_depths(0.6, 5)
     assert [round(c, 3) for c in cums] == [0.164, 0.300, 0.424, 0.520, 0.600]
     # re-derived: Δap_x = ap/√(nap−1)·√φ, φ = 0.3, 1, x−1 (threading-tool handbooks)
@@ -45,7 +45,7 @@ def test_equal_plan():
 
 
 @pytest.mark.parametrize("total, first, kind, n", [
-    (0.6, 0.165, "constant-area", 5),  # inverse of the published 5-pass plan (§6: 0.164)
+    (0.6, 0.165, "constant-area", 5),  # inverse of the published 5-pass plan (threading-tool handbooks: 0.164)
     (0.6, 0.164, "constant-area", 6),  # 0.164 is rounded down from 0.16432: one more pass
     (0.6, 0.15, "equal", 4),           # arithmetic
     (0.1, 0.2, "constant-area", 1),
@@ -79,7 +79,7 @@ def test_compound_columns():
     m = infeed_method("modified", 60)
     plan = make_plan(0.6, m, passes=5, feed_dial=FINE)
     for p in plan.passes:
-        assert p.compound_cum == pytest.approx(p.radial_cum * 1.14896, abs=1e-4)  # §6 factor
+        assert p.compound_cum == pytest.approx(p.radial_cum * 1.14896, abs=1e-4)  # computed factor, 1/cos 29.5°
     assert plan.compound_total == pytest.approx(0.6 * 1.14896, abs=1e-4)
 
 
@@ -189,7 +189,7 @@ def test_bore_to_prepare():
     from shopterm.standards import limits, parse
     lim = limits(parse("M10x1.5-6H"))
     b = bore_to_prepare(lim)
-    assert (b.minor_min, b.minor_max) == (8.376, 8.676)  # published-values.md §1, D1 6H [P]
+    assert (b.minor_min, b.minor_max) == (8.376, 8.676)  # ISO 68-1 and ISO 965-1/-2, D1 6H [P]
     assert b.suggested == pytest.approx(8.526)
     with pytest.raises(InvalidEntry):
         bore_to_prepare(limits(parse("M10x1.5-6g")))

@@ -73,7 +73,7 @@ def test_trapezoidal_wire_range_from_the_flat_crest():
 
 
 def test_acme_simple_formula_against_published_constants():
-    # published-values §5: M = E + 4.993929W − 1.933357P; 1-5 ACME basic E = 0.9 in
+    # three-wire relation, NBS Handbook H28 constants for 29°: M = E + 4.993929W − 1.933357P; 1-5 ACME basic E = 0.9 in
     # (ASME B1.5: E = D − 0.5p), best wire 0.516450 × 0.2 in
     wire = 0.516450 * 0.2 * IN
     m = w.over_wires_simple(0.9 * IN, wire, ACME_29, 0.2 * IN)
@@ -103,7 +103,7 @@ def test_exact_model_on_flat_crested_coarse_leads(form, e, p, lead):
 
 
 def test_simple_formula_errs_on_a_coarse_acme_lead_and_exact_is_acted_on():
-    # published-values §5 [P]: the simple formulas hold up to about 5° and read the screw
+    # NBS Handbook H28 (three-wire method): the simple formulas hold up to about 5° and read the screw
     # larger than it is. 1.000-0.4P-0.8L ACME at its basic E: lead angle about 17.7°
     lim = acme_1_04p_08l()
     p, lead, e = lim.spec.pitch, lim.spec.lead, lim.basic_pd
@@ -117,7 +117,7 @@ def test_simple_formula_errs_on_a_coarse_acme_lead_and_exact_is_acted_on():
 
 
 def test_exact_agrees_with_h28_on_a_single_start_tr24x5():
-    # NBS H28 form is good for lead angles up to about 5° (published-values §5 [P]); Tr24x5
+    # NBS H28 form is good for lead angles up to about 5° (NBS Handbook H28 (three-wire method)); Tr24x5
     # has 4.2° at d2 = 21.5 (ISO 2904): agreement to well under a 0.001 mm step
     e, p = 21.5, 5.0
     wire = w.wire_range(TRAPEZOIDAL_30, p).best
@@ -299,7 +299,7 @@ def test_flank_and_modified_at_half_the_form_angle(form, flank, modified):
     f = infeed_method("flank", form.angle_deg)
     m = infeed_method("modified", form.angle_deg)
     assert (f.true_angle_deg, m.true_angle_deg) == (flank, modified)
-    # published-values §6 [C]: compound travel = radial / cos(angle)
+    # threading-tool handbooks, computed: compound travel = radial / cos(angle)
     assert f.factor == pytest.approx(1 / math.cos(math.radians(flank)))
     # a compound scale zeroed along the bed reads 90° − the true angle (§6 [M])
     assert infeed_method("flank", form.angle_deg, lathe=bed_lathe).scale_reading_deg == \
@@ -316,7 +316,7 @@ def test_square_thread_is_fed_radially_only():
 
 def test_groove_area_plan_reduces_to_the_published_law_without_a_flat():
     from shopterm.cutting.plan import constant_area_depths, groove_area_depths
-    # published-values §6 [C]: ap 0.6, 5 passes -> 0.164, 0.300, 0.424, 0.520, 0.600; a vanishing
+    # threading-tool handbooks, computed: ap 0.6, 5 passes -> 0.164, 0.300, 0.424, 0.520, 0.600; a vanishing
     # flat leaves the area ∝ depth², the published law
     got = groove_area_depths(0.6, 5, 1e-12, math.tan(math.radians(30)))
     assert got == pytest.approx((0.164, 0.300, 0.424, 0.520, 0.600), abs=1e-3)
@@ -412,7 +412,7 @@ def test_two_start_tr24x10_dial_against_simulation(ls, teeth, lines):
     plan = dial_plan(screw, ThreadDial(teeth, lines, ()), lead, lim.spec.starts)
     per_line, _ = simulate(screw.pitch_exact, lead, teeth, lines, 2)
     if plan.keep_half_nut_closed:
-        # published-values §7 [P]: a metric lead on an inch leadscrew: keep the half nut closed
+        # Jones, Turning and Boring (thread dial): a metric lead on an inch leadscrew: keep the half nut closed
         assert all(len(seen) > 1 for seen in per_line.values())
         assert ls == "8tpi" or teeth == 12
         return

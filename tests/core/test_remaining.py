@@ -1,8 +1,8 @@
 """From a reading over wires to what to feed: states, remainders, dials, slips, fit checks.
 
-Sources: ISO 965-2 limits as in ../shared/reference/published-values.md §1 [P]; ISO 965-1 tables
-(../shared/reference/iso965-1-tables.md); compound factor published-values §6 [C]; ASME B1.1
-table values §2 [P].
+Sources: ISO 965-2 limits [P]; ISO 965-1 tables (two published copies compared cell by cell);
+the compound factor 1/cos A [C]; ASME B1.1 table values [P]. [P] printed in the named standard,
+[C] computed.
 """
 
 from __future__ import annotations
@@ -23,13 +23,13 @@ from shopterm.standards.spec import Limits, ThreadSpec
 SPEC = ThreadSpec("iso", "M", "M10", 10.0, 1.5, ISO_60, tol_class="6g")
 LIM = Limits(
     SPEC, basic_major=10.0,
-    basic_pd=10 - 0.649519 * 1.5,        # ISO 68-1 d2 = d − 0.649519P (published-values §1 [P])
-    basic_minor=10 - 1.226869 * 1.5,     # ISO 68-1 d3 = d − 1.226869P (published-values §1 [P])
-    major_max=9.968, major_min=9.732,    # ISO 965-2, M10x1.5-6g d (published-values §1 [P])
-    pd_max=8.994, pd_min=8.862,          # ISO 965-2, M10x1.5-6g d2 (published-values §1 [P])
-    minor_max=8.128, minor_min=None,     # ISO 965-2, M10x1.5-6g d3 max (published-values §1 [P])
-    depth=0.920)                         # tap maker's h3 table, M10 (published-values §1 [P])
-WIRE = 0.866      # best wire 0.577350P for P 1.5 (published-values §5 [P]), rounded as marked
+    basic_pd=10 - 0.649519 * 1.5,        # ISO 68-1 d2 = d − 0.649519P
+    basic_minor=10 - 1.226869 * 1.5,     # ISO 68-1 d3 = d − 1.226869P
+    major_max=9.968, major_min=9.732,    # ISO 965-2, M10x1.5-6g d
+    pd_max=8.994, pd_min=8.862,          # ISO 965-2, M10x1.5-6g d2
+    minor_max=8.128, minor_min=None,     # ISO 965-2, M10x1.5-6g d3 max
+    depth=0.920)                         # tap maker's h3 table, M10 (ISO 68-1 and ISO 965-1/-2)
+WIRE = 0.866      # best wire 0.577350P for P 1.5 (NBS Handbook H28, three-wire method), rounded as marked
 
 # demo dials, invented for the test: cross-slide reads on diameter, compound on radius
 LATHE = Lathe("test", Leadscrew.from_tpi(8), Dial("mm", 0.02, 100, reads_diameter=True),
@@ -53,10 +53,10 @@ def test_oversize_remainders_and_feed():
     assert r.to_mid == pytest.approx(pd - 8.928, abs=1e-8)
     assert r.to_min == pytest.approx(pd - 8.862, abs=1e-8)
     # external thread: PD falls by 2 × radial infeed; compound at 29.5°: × 1.14896
-    # (published-values §6 [C], travel = radial / cos A)
+    # (computed: travel = radial / cos A)
     assert r.radial_to_mid == pytest.approx((pd - 8.928) / 2, abs=1e-8)
     assert r.compound_to_mid == pytest.approx(r.radial_to_mid * 1.14896, rel=1e-5)
-    assert r.compound_angle_deg == 29.5       # US Navy training manual (published-values §6 [P])
+    assert r.compound_angle_deg == 29.5       # US Navy training manual
     assert "clockwise" in r.direction and "backlash" in r.backlash
 
 
@@ -93,7 +93,7 @@ def test_in_band_says_stop_and_where():
 
 def test_undersize_says_by_how_much_and_what_it_still_fits():
     pd = 8.850
-    # ISO 965-1 tables (iso965-1-tables.md): es e(1.5) −67, g(1.5) −32; Td2 grade 6 = 132,
+    # ISO 965-1 tables: es e(1.5) −67, g(1.5) −32; Td2 grade 6 = 132,
     # grade 8 = 212 for 5.6–11.2 P1.5; basic d2 9.026 → computed bands below
     bands = [("6e", 9.026 - 0.067, 9.026 - 0.067 - 0.132), ("8g", 9.026 - 0.032, 8.994 - 0.212),
              ("6h", 9.026, 9.026 - 0.132)]
@@ -158,25 +158,25 @@ def test_band_upside_down_is_refused():
 
 
 def test_basic_size_band_counts_within_half_a_step():
-    # 1-5/8 BSW: E = D − 0.640327P, 5 tpi (BS 84, published-values §3 [P]; 5 tpi from memory)
+    # 1-5/8 BSW: E = D − 0.640327P, 5 tpi (BS 84; 5 tpi from memory)
     p = 25.4 / 5
     e = 1.625 * 25.4 - 0.640327 * p
     spec = ThreadSpec("whitworth", "BSW", "1-5/8", 1.625 * 25.4, p, WHITWORTH_55, tpi=5,
                       native_unit="in")
     lim = Limits(spec, 1.625 * 25.4, e, 1.625 * 25.4 - 1.280654 * p, None, None, e, e, None,
                  None, 0.640327 * p)
-    wire = 0.563691 * p          # best wire for 55° (published-values §5 [P])
+    wire = 0.563691 * p          # best wire for 55° (NBS Handbook H28, three-wire method)
     r = rem.measure(lim, wire, [reading_at(e + 0.0004, lim, wire)], resolution=0.00254)
     assert r.state == "in_band" and r.band_position is None
     assert "0.0000 in over" in r.headline    # an inch thread gets its message in inches
     r = rem.measure(lim, wire, [reading_at(e + 0.01, lim, wire)], resolution=0.00254)
     assert r.state == "oversize"
-    assert r.compound_angle_deg == 27.5   # from memory: 27–27.5° for 55° (published-values §6 [M])
+    assert r.compound_angle_deg == 27.5   # from memory: 27–27.5° for 55°
 
 
 def test_internal_thread_offers_a_fit_check():
     internal = Limits(SPEC.with_(kind="internal", tol_class="6H"), 10.0, 9.026, 8.376, None,
-                      10.0, 9.206, 9.026, 8.676, 8.376, 0.812)   # ISO 965-2 6H (§1 [P])
+                      10.0, 9.206, 9.026, 8.676, 8.376, 0.812)   # ISO 965-2 6H
     with pytest.raises(InvalidEntry, match="mating part or a plug gauge"):
         rem.measure(internal, WIRE, [10.0])
     offer = rem.fit_check_offer(internal.spec)
@@ -215,7 +215,7 @@ def test_feed_direction_refuses_other_kinds():
 
 
 def test_compound_travel_factor():
-    # published-values §6 [C]: 29.5° → 1.14896, 27.5° → 1.12738
+    # computed, travel = radial / cos A: 29.5° → 1.14896, 27.5° → 1.12738
     assert rem.compound_travel(1.0, 29.5) == pytest.approx(1.14896, abs=1e-5)
     assert rem.compound_travel(1.0, 27.5) == pytest.approx(1.12738, abs=1e-5)
 
@@ -229,7 +229,7 @@ def test_with_the_standards_tables():
     # ISO 965-1 tables: 6e 8.959..8.827 and 8g 8.994..8.782 hold 8.850 (computed as above)
     assert {"6e", "8g"} <= set(r.still_fits) and "6h" not in r.still_fits
     lim = limits(parse("1/4-20 UNC-2A"))
-    assert lim.pd_max / 25.4 == pytest.approx(0.2164, abs=5e-5)   # ASME B1.1 2A PD max (§2)
+    assert lim.pd_max / 25.4 == pytest.approx(0.2164, abs=5e-5)   # ASME B1.1 2A PD max
     wire = 0.029 * 25.4
     r = rem.measure(lim, wire, [reading_at(0.2150 * 25.4, lim, wire)], unit="in")
     assert r.state == "in_band"

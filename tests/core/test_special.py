@@ -1,6 +1,6 @@
 """Special threads: make(), the SPECIAL designation, limits from a user-given fit, errors.
 
-Check values are from ../shared/reference/published-values.md unless marked.
+Check values are from the standards named beside them unless marked.
 """
 
 
@@ -35,7 +35,7 @@ def test_sixty_degree_internal_depth():
 
 
 def test_iso_6g_fit_given_as_a_special_gives_the_iso_965_2_limits():
-    # es, Td2, Td taken from the ISO 965-2 M10x1.5-6g limits, published-values §1 [P]:
+    # es, Td2, Td taken from the ISO 965-2 M10x1.5-6g limits:
     # es = 9.968 − 10, Td = 9.968 − 9.732, Td2 = 8.994 − 8.862
     es, td, td2 = 10 - 9.968, 9.968 - 9.732, 8.994 - 8.862
     lim = sp.limits(sp.make(10, pitch_mm=1.5, allowance_mm=es, pd_tolerance_mm=td2,
@@ -48,7 +48,7 @@ def test_iso_6g_fit_given_as_a_special_gives_the_iso_965_2_limits():
 
 
 def test_iso_6h_fit_given_as_a_special_gives_the_iso_965_2_limits():
-    # TD2 = 9.206 − 9.026, EI = 0, from ISO 965-2 M10x1.5-6H, published-values §1 [P]
+    # TD2 = 9.206 − 9.026, EI = 0, from ISO 965-2 M10x1.5-6H
     lim = sp.limits(sp.make(10, pitch_mm=1.5, kind="internal", pd_tolerance_mm=9.206 - 9.026))
     assert round(lim.pd_min, 3) == 9.026     # ISO 965-2 D2 min [P]
     assert round(lim.pd_max, 3) == 9.206     # ISO 965-2 D2 max [P]

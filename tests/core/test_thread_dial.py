@@ -99,14 +99,14 @@ def test_multi_start_lines_match_simulation(ls, lead, teeth, lines, starts):
 
 
 def test_metric_on_inch_leadscrew_keeps_half_nut_closed():
-    # published-values.md §7 [P]: metric lead on an inch leadscrew -> keep the half nut closed
+    # Jones, Turning and Boring (1914): metric lead on an inch leadscrew -> keep the half nut closed
     plan = dial_plan(Leadscrew.from_tpi(8), ThreadDial(32, 8, (1, 3, 5, 7)), 1.5)
     assert plan.keep_half_nut_closed and plan.lines == () and not plan.anywhere
     assert "reverse the spindle" in plan.describe()
 
 
 def test_jones_rule_one_dial_turn_is_teeth_over_tpi():
-    # published-values.md §7 (Jones): one dial revolution = T/L in; 32 teeth on 8 tpi = 4 in,
+    # (Jones): one dial revolution = T/L in; 32 teeth on 8 tpi = 4 in,
     # so 8 lines are 0.5 in = 12.7 mm apart (computed).
     plan = dial_plan(Leadscrew.from_tpi(8), ThreadDial(32, 8, (1, 3, 5, 7)), INCH / 10)
     assert plan.line_travel_mm == pytest.approx(12.7, abs=1e-12)

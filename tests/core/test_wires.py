@@ -1,6 +1,6 @@
 """Three-wire measurement: constants, wire sizes, the relation both ways, readings, slips.
 
-Sources: ../shared/reference/published-values.md §5 (tags [P] printed, [C] computed there);
+Sources: NBS Handbook H28, three-wire method (tags [P] printed, [C] computed there);
 NBS Handbook H28; Jones, *Turning and Boring* (1914); ASME B1.1 basic PD formula.
 """
 
@@ -24,12 +24,12 @@ IN = 25.4  # exact, NIST SP 811
 # ---- published constants -------------------------------------------------------------------
 
 @pytest.mark.parametrize("form, c_w, c_p, best", [
-    (ISO_60, 3.000000, 0.866025, 0.577350),          # published-values §5 [P], 60°
-    (UNIFIED_60, 3.000000, 0.866025, 0.577350),      # published-values §5 [P], 60°
-    (WHITWORTH_55, 3.165681, 0.960491, 0.563691),    # published-values §5 [P], 55°
-    (BA_47_5, 3.482950, 1.136336, 0.546262),         # published-values §5 [P], 47.5°
-    (ACME_29, 4.993929, 1.933357, 0.516450),         # published-values §5 [P], 29°
-    # published-values §5 [C] 30° trapezoidal; best computed from P/(2 cos 15°), H28
+    (ISO_60, 3.000000, 0.866025, 0.577350),          # NBS Handbook H28, three-wire method, 60°
+    (UNIFIED_60, 3.000000, 0.866025, 0.577350),      # NBS Handbook H28, three-wire method, 60°
+    (WHITWORTH_55, 3.165681, 0.960491, 0.563691),    # NBS Handbook H28, three-wire method, 55°
+    (BA_47_5, 3.482950, 1.136336, 0.546262),         # NBS Handbook H28, three-wire method, 47.5°
+    (ACME_29, 4.993929, 1.933357, 0.516450),         # NBS Handbook H28, three-wire method, 29°
+    # (computed) 30° trapezoidal; best computed from P/(2 cos 15°), H28
     (TRAPEZOIDAL_30, 4.863703, 1.866025, 1 / (2 * math.cos(math.radians(15)))),
 ])
 def test_published_constants(form, c_w, c_p, best):
@@ -50,8 +50,8 @@ def test_every_form_has_constants_that_satisfy_the_general_formula():
 
 def test_wire_range_60_degrees():
     k = w.wire_constants(ISO_60)
-    assert k.smallest == pytest.approx(0.505182, abs=1e-6)   # published-values §5 [P], 60° min
-    assert k.largest == pytest.approx(1.010363, abs=1e-6)    # published-values §5 [P], 60° max
+    assert k.smallest == pytest.approx(0.505182, abs=1e-6)   # NBS Handbook H28, three-wire method, 60° min
+    assert k.largest == pytest.approx(1.010363, abs=1e-6)    # NBS Handbook H28, three-wire method, 60° max
 
 
 def _arc_tangent_depth(radius: float, half_angle: float) -> float:
@@ -65,7 +65,7 @@ def _arc_tangent_depth(radius: float, half_angle: float) -> float:
 
 @pytest.mark.parametrize("form", [WHITWORTH_55, BA_47_5])
 def test_wire_range_of_rounded_forms_rederived(form):
-    # computed from the BS 84 / BS 93 crest radius (published-values §3, §4 [P]) by placing the
+    # computed from the BS 84 / BS 93 crest radius (BS 93 [P]) by placing the
     # wire in the sharp V: centre at r/sin a above the root apex, contact at r cos²a / sin a.
     a = math.radians(form.angle_deg / 2)
     k = w.wire_constants(form)
@@ -82,7 +82,7 @@ def test_wire_range_of_rounded_forms_rederived(form):
 
 
 def test_whitworth_range_values():
-    # computed from BS 84 r = 0.137329P, H = 0.960491P (published-values §3 [P]) as above
+    # computed from BS 84 r = 0.137329P, H = 0.960491P as above
     k = w.wire_constants(WHITWORTH_55)
     a = math.radians(27.5)
     assert k.smallest == pytest.approx(2 * (0.960491 * 5 / 6) / (1 + 1 / math.sin(a)), abs=1e-6)
@@ -95,7 +95,7 @@ def test_whitworth_range_values():
 
 COMMON_INCH = tuple(WireSize(v * IN) for v in
                     (.018, .024, .029, .032, .040, .045, .055, .063, .072, .081, .092, .108))
-# published-values §5 [P]: common inch wire sizes
+# NBS Handbook H28, three-wire method: common inch wire sizes
 
 
 @pytest.mark.parametrize("form", [WHITWORTH_55, UNIFIED_60])
@@ -118,7 +118,7 @@ def test_measured_size_wins_over_marked():
 def test_no_owned_wire_falls_back_to_best_size():
     choice = w.choose_wire(ISO_60, 1.5, ())
     assert choice.owned is None
-    assert choice.size == pytest.approx(0.577350 * 1.5, abs=1e-6)   # published-values §5 [P]
+    assert choice.size == pytest.approx(0.577350 * 1.5, abs=1e-6)   # NBS Handbook H28, three-wire method
     assert "No wire sets" in choice.note
 
 
@@ -127,7 +127,7 @@ def test_refused_wire_names_owned_sizes_that_work(wire, why):
     owned = (WireSize(0.577), WireSize(0.866, label="for 1.5"), WireSize(1.2))
     chk = w.check_wire(ISO_60, 1.5, wire, owned)
     assert not chk.ok and why in chk.message
-    # 60° range for P 1.5: 0.758..1.516 (published-values §5 [P] factors): 0.866 and 1.2 fit
+    # 60° range for P 1.5: 0.758..1.516 (NBS Handbook H28, three-wire method factors): 0.866 and 1.2 fit
     assert [o.marked for o in chk.would_work] == [0.866, 1.2]       # best first
     assert "0.866 mm (for 1.5) or 1.200 mm" in chk.message
     with pytest.raises(InvalidEntry, match="from your sets"):
@@ -159,19 +159,19 @@ def test_bad_pitch():
 def test_jones_worked_example():
     # Jones, Turning and Boring (1914), 1-1/2 in x 6 tpi, W = 0.140 in: M = 1.6674 in [P]
     d, p, wire = 1.5, 1 / 6, 0.140
-    e = d - 0.649519 * p          # ASME B1.1 basic PD (published-values §2 [P])
+    e = d - 0.649519 * p          # ASME B1.1 basic PD
     m = w.over_wires_simple(e * IN, wire * IN, UNIFIED_60, p * IN) / IN
     assert round(m, 4) == 1.6674
     assert m == pytest.approx(d - 1.5155 * p + 3 * wire, abs=1e-5)   # Jones's own formula
 
 
 def test_quarter_20_lead_angle_correction():
-    # published-values §5 [C]: 1/4-20, E 0.2175, W 0.0289: lead angle 4.185°, correction 0.000116
+    # NBS Handbook H28, three-wire method (computed): 1/4-20, E 0.2175, W 0.0289: lead angle 4.185°, correction 0.000116
     e, wire, p = 0.2175 * IN, 0.0289 * IN, IN / 20
     assert math.degrees(math.atan(p / (math.pi * e))) == pytest.approx(4.185, abs=5e-4)
     corr = w.h28_correction(e, wire, UNIFIED_60, p) / IN
     assert corr == pytest.approx(0.000116, abs=5e-7)
-    # 60° form of the H28 formula, E = M + 0.866025P − W(3 + 0.75 tan²λ) (published-values §5)
+    # 60° form of the H28 formula, E = M + 0.866025P − W(3 + 0.75 tan²λ)
     m = w.over_wires_h28(e, wire, UNIFIED_60, p) / IN
     tl = (1 / 20) / (math.pi * 0.2175)
     assert 0.2175 == pytest.approx(m + 0.866025 / 20 - 0.0289 * (3 + 0.75 * tl ** 2), abs=2e-7)
@@ -179,7 +179,7 @@ def test_quarter_20_lead_angle_correction():
 
 def test_exact_agrees_with_h28_for_a_single_start_quarter_20():
     # NBS H28 correction is the small-angle form; the exact model must agree to well under a
-    # 0.0001 in micrometer step (published-values §5: simplified formulas hold up to about 5°)
+    # 0.0001 in micrometer step (NBS Handbook H28, three-wire method: simplified formulas hold up to about 5°)
     e, wire, p = 0.2175 * IN, 0.0289 * IN, IN / 20
     exact = w.over_wires_exact(e, wire, UNIFIED_60, p)
     h28 = w.over_wires_h28(e, wire, UNIFIED_60, p)
@@ -206,7 +206,7 @@ def test_exact_lies_between_simple_and_h28(starts):
 
 
 def test_simple_formula_reads_a_multi_start_screw_larger():
-    # published-values §5 [P]: the simplified formula reads the screw larger than it is
+    # NBS Handbook H28, three-wire method: the simplified formula reads the screw larger than it is
     e, wire, p = 0.2175 * IN, 0.0289 * IN, IN / 20
     m = w.over_wires_exact(e, wire, UNIFIED_60, p, 6 * p)
     assert w.pd_simple(m, wire, UNIFIED_60, p) > e + 0.003 * IN
@@ -231,7 +231,7 @@ def _min_distance(e, r, form, p, lead, x, theta, phi0, rho0, span_phi=0.06, span
 @pytest.mark.parametrize("form, e, p, starts", [
     (UNIFIED_60, 0.2175 * IN, IN / 20, 4),     # a 4-start 1/4-20 form: lead angle 16°
     (ACME_29, 20.0, 4.0, 3),
-    (BA_47_5, 4.214, 0.81, 1),                 # 2BA basic E (published-values §4 [C])
+    (BA_47_5, 4.214, 0.81, 1),                 # 2BA basic E (BS 93 (computed))
 ])
 def test_exact_contact_checked_by_brute_force(form, e, p, starts):
     # independent check of the method: at the settled position the wire just touches the flank,
@@ -267,7 +267,7 @@ def test_read_pitch_diameter_gives_all_three():
     assert r.pd == pytest.approx(e, abs=1e-9)
     assert r.pd_simple - r.pd == pytest.approx(m - w.over_wires_simple(e, wire, UNIFIED_60, p))
     assert r.pd_h28 < r.pd < r.pd_simple
-    assert r.lead_angle_deg == pytest.approx(4.185, abs=5e-4)   # published-values §5 [C]
+    assert r.lead_angle_deg == pytest.approx(4.185, abs=5e-4)   # NBS Handbook H28, three-wire method (computed)
 
 
 @settings(max_examples=40, deadline=None)
@@ -320,7 +320,7 @@ def test_bad_resolution():
         w.summarise_readings([10.0], 0)
 
 
-# M10x1.5: basic major 10, d3 = d − 1.226869P (ISO 68-1, published-values §1 [P])
+# M10x1.5: basic major 10, d3 = d − 1.226869P (ISO 68-1)
 M10 = dict(form=ISO_60, pitch=1.5, lead=1.5, major=10.0, minor=10 - 1.226869 * 1.5, wire=0.866)
 
 

@@ -194,7 +194,7 @@ def test_pitch_diameter_from_a_reading_agrees_with_the_reference(form, log_p, st
 
 
 def test_band_over_wires_agrees_with_the_reference():
-    # M10x1.5-6g d2 max 8.994, min 8.862: ISO 965-2 as printed (published-values §1 [P]);
+    # M10x1.5-6g d2 max 8.994, min 8.862: ISO 965-2 as printed;
     # best wire 0.866 mm; a two-start cut of it
     form, p, lead, wire = ISO_60, 1.5, 3.0, 0.866
     w._settle_cached.cache_clear()
@@ -225,7 +225,7 @@ def test_steep_leads_fall_back_to_the_search_and_still_agree(form, p, starts, ra
 
 
 @pytest.mark.parametrize("form, e, p, starts", [
-    (UNIFIED_60, 0.2175 * 25.4, 25.4 / 20, 1),   # 1/4-20 UNC basic E (published-values §5 [C])
+    (UNIFIED_60, 0.2175 * 25.4, 25.4 / 20, 1),   # 1/4-20 UNC basic E (NBS Handbook H28, three-wire method (computed))
     (ACME_29, 20.0, 4.0, 3),
     (TRAPEZOIDAL_30, 36.0, 8.0, 6),              # Tr40x48(P8)-like: lead angle 23°
 ])

@@ -159,8 +159,7 @@ def test_bad_designation_is_refused_in_place_and_kept(tmux_shopterm):
 def unc_2a_limits(d: float, n: int) -> tuple[float, float, float, float]:
     """Return (major max, major min, PD max, PD min) [in] of an external UNC-2A thread.
 
-    Computed from the ASME B1.1 formulas as quoted in /work/shared/reference/published-values.md
-    §2: basic PD = D - 0.649519/n; Td2(2A) = 0.0015 D^(1/3) + 0.0015 sqrt(LE) + 0.015 P^(2/3)
+    Computed from the ASME B1.1 formulas: basic PD = D - 0.649519/n; Td2(2A) = 0.0015 D^(1/3) + 0.0015 sqrt(LE) + 0.015 P^(2/3)
     with LE = D for UNC; allowance = 0.300 Td2; major tolerance 0.060 P^(2/3); each rounded to
     0.0001 in from the unrounded value, then applied to the rounded basic size.
     """
@@ -176,13 +175,7 @@ def unc_2a_limits(d: float, n: int) -> tuple[float, float, float, float]:
 def test_unified_thread_by_digits_alone(tmux_shopterm):
     pane = tmux_shopterm()
     pick(pane, "Thread family", "Unified inch")
-    pick(pane, "Series", "UNC")
-    pick(pane, "Size", "1/4")                 # on the second page: 0 turns it
-    text = pane.wait_for(re.compile(r"External or internal|Pitch"))
-    if "Pitch" in text and "External or internal" not in text:
-        pick(pane, "Pitch", "20 tpi UNC")
-    pick(pane, "External or internal", "external (screw)")
-    pick(pane, "Class of fit", "2A")
+    pick(pane, "Common sizes", "1/4-20 UNC-2A")      # the UNC sizes come first, external 2A
     text = pane.wait_for("pitch diameter")
     show("1/4-20 UNC-2A by digits", text)
     assert "1/4-20 UNC-2A" in text
@@ -193,16 +186,31 @@ def test_unified_thread_by_digits_alone(tmux_shopterm):
     assert major[("max", "in")] == pytest.approx(0.2489, abs=5e-5)  # ASME B1.1, 1/4-20 UNC-2A
     assert major[("min", "in")] == pytest.approx(0.2408, abs=5e-5)  # ASME B1.1, 1/4-20 UNC-2A
     # and the same four from the B1.1 formulas, re-derived here
-    # computed from ASME B1.1 formulas (published-values.md §2), 1/4-20 UNC-2A
+    # computed from ASME B1.1 formulas, 1/4-20 UNC-2A
     for shown, derived in zip((major[("max", "in")], major[("min", "in")], pd[("max", "in")],
                                pd[("min", "in")]), unc_2a_limits(0.25, 20)):
         assert shown == pytest.approx(derived, abs=5e-5)
 
 
+def test_metric_size_and_pitch_typed_with_digits_and_points(tmux_shopterm):
+    pane = tmux_shopterm()
+    pane.send(".")                            # the point key opens the numeric entry
+    pane.wait_for("Size.pitch: ")
+    pane.send("10.1.25", tmux.KEYPAD_ENTER)   # M10, pitch 1.25
+    text = pane.wait_for("pitch diameter")
+    show("10.1.25 typed", text)
+    assert "M10x1.25-6g" in text
+    pd = read_limits(text)["pitch diameter"]
+    assert pd[("max", "mm")] == pytest.approx(9.160, abs=5e-4)  # ISO 965-2, M10x1.25-6g d2 max (from memory)
+    assert pd[("min", "mm")] == pytest.approx(9.042, abs=5e-4)  # ISO 965-2, M10x1.25-6g d2 min (from memory)
+    pane.send("-")                            # back: the list as it was before
+    pane.wait_for("Thread family")
+
+
 def test_unc_formula_helper_matches_a_second_printed_size():
     # guards the re-derivation above with another size of the same table
     # ASME B1.1 table, 3/8-16 UNC-2A: major 0.3737/0.3643, PD 0.3331/0.3287
-    # (published-values.md §2)
+    # (ASME B1.1)
     assert unc_2a_limits(0.375, 16) == pytest.approx((0.3737, 0.3643, 0.3331, 0.3287), abs=5e-5)
 
 

@@ -3,7 +3,9 @@
 Each test drives the installed command at 80x24 with the keys a numeric keypad sends through
 tmux (digits, ``.``, keypad Enter as ``C-j``, Backspace, ``+ - * /``; never a letter):
 
-1. the thread by the list walk (digits; ``0`` turns a page), two starts by the walk's option;
+1. the thread by digits (the jobs and how each thread is picked, by the list walk or as a
+   favourite of the demo config, are in ``tests/keypad_jobs.py``, which the key-count
+   benchmark replays too), two starts by the thread's option;
 2. the demo lathe's set-up: change gears (the lead they make is re-derived with
    ``fractions.Fraction``), work holding, run-out, indexing for two starts; Enter records it;
 3. the checklist, every item walked with Enter (the compound setting and half-nut plan read);
@@ -25,7 +27,6 @@ import math
 import re
 import subprocess
 import sys
-import tomllib
 from fractions import Fraction
 from pathlib import Path
 
@@ -34,11 +35,11 @@ import pytest
 from shopterm.job.state import fold
 from shopterm.job.store import Store
 from tests.e2e import tmux
+from tests.keypad_jobs import SETUP_ANSWERS, KeypadJob, demo_config, job, lathe_facts
 from tests.e2e.thread_sim import INCH, ThreadSim, radial_from_dial
 
 pytestmark = pytest.mark.e2e
 
-SAMPLE = Path(__file__).resolve().parents[2] / "sample_config.toml"
 WAIT = 20.0                        # longest one screen may take to appear [s] (slow CI)
 ENTER = tmux.KEYPAD_ENTER
 KEYPAD = set("0123456789.+-*/") | {ENTER, "BSpace"}
@@ -114,51 +115,14 @@ def find(pattern: str, text: str, what: str) -> re.Match:
 # ---------------------------------------------------------------------------------------------
 # The configs: the sample's demo lathe, shown in mm or in inches
 
-def demo_config(tmp: Path, units: str) -> Path:
-    """Return the sample config (the demo lathe) with the display in ``units`` and a micrometer
-    that reads 0.001 mm (metric) or 0.0001 in (inch), as a shop with either would have."""
-    text = SAMPLE.read_text(encoding="utf-8")
-    text = re.sub(r'(?m)^units = "\w+"', f'units = "{units}"', text, count=1)
-    res = '"0.001 mm"' if units == "mm" else '"0.0001 in"'
-    text = re.sub(r'(?m)^resolution = "[^"]*"', f"resolution = {res}", text, count=1)
-    path = tmp / f"demo-{units}.toml"
-    path.write_text(text, encoding="utf-8")
-    return path
-
-
-def length_mm(text: str) -> float:
-    """Return a config length such as ``0.001 in`` in mm."""
-    value, unit = text.split()
-    return float(Fraction(value)) * (INCH if unit == "in" else 1.0)
-
-
-def lathe_facts(config: Path) -> dict:
-    """Return what the operator knows of the demo lathe from its config (no app code)."""
-    cfg = tomllib.loads(config.read_text(encoding="utf-8"))
-    tool = cfg["tool"]
-    kind = "radius" if "nose_radius" in tool else "flat"
-    return {"leadscrew_tpi": cfg["leadscrew"]["tpi"],
-            "compound_div_mm": length_mm(cfg["compound"]["division"]),
-            "cross_div_mm": length_mm(cfg["cross_slide"]["division"]),
-            "tip_kind": kind, "tip_mm": length_mm(tool["nose_radius" if kind == "radius"
-                                                       else "flat"]),
-            "resolution_mm": length_mm(cfg["micrometer"]["resolution"]),
-            "wires_mm": [length_mm(w.get("measured", w["marked"])) for w in cfg["wires"]],
-            "spindle_gear": cfg["indexing"]["spindle_gear"],
-            "plate_slots": cfg["indexing"]["driving_plate_slots"]}
-
-
 # ---------------------------------------------------------------------------------------------
 # One whole job
 
-def choose_thread(m: Machine, walk: list[tuple[str, str]], starts: int, want: str) -> str:
-    """Walk the thread lists by digits, set the starts, use it; return the designation shown."""
+def choose_thread(m: Machine, walk, starts: int, want: str) -> str:
+    """Pick the thread from the lists by digits, set the starts, use it; return the designation
+    shown."""
     m.wait("Thread family")
     for heading, label in walk:
-        if heading == "Pitch":          # a size with one pitch skips this step
-            text = m.wait(re.compile(r"External or internal|\bPitch\b"))
-            if "External or internal" in text:
-                continue
         pick(m, heading, label, f"thread: {heading.lower()}")
     text = m.wait("This thread")
     for n in range(2, starts + 1):
@@ -177,7 +141,7 @@ def gear_lead_mm(gears: str, leadscrew_tpi: int) -> Fraction:
     """Return the lead [mm] a train written on the screen makes, exactly.
 
     ``60 > idler > 127`` (simple) or ``a/b x c/d`` (drivers a, c; driven b, d).
-    References: published-values.md section 8 (work pitch = leadscrew pitch × drivers/driven).
+    References: Rose, Modern Machine Shop Practice (work pitch = leadscrew pitch × drivers/driven).
     """
     screw = Fraction(254, 10) / leadscrew_tpi
     if m := re.fullmatch(r"(\d+) > idler > (\d+)", gears):
@@ -195,13 +159,13 @@ def set_up_lathe(m: Machine, facts: dict, lead_mm: Fraction, starts: int) -> dic
     m.shot("set-up: change gears", text)
     gears = find(r"(?m)^ Gears\s+(.+?), (?:exact|[+-][\d.]+% off the lead)", text, "gears")[1]
     made = gear_lead_mm(gears, facts["leadscrew_tpi"])
-    # computed from leadscrew pitch × drivers/driven with Fraction, published-values.md §8
+    # computed from leadscrew pitch × drivers/driven with Fraction, Rose, Modern Machine Shop Practice
     assert abs(float(made - lead_mm)) <= float(lead_mm) * 1e-3, (gears, made, lead_mm)
     if ", exact" in text:
         assert made == lead_mm, (gears, made)
     m.keys("1")                                          # the best train
-    pick(m, "how is the work held?", "in a chuck", "set-up: work holding")
-    pick(m, "where does the tool run out", "into a relief groove (undercut)", "set-up: run-out")
+    for heading, label in SETUP_ANSWERS:                 # work holding, run-out
+        pick(m, heading, label, f"set-up: {label}")
     out = {"gears": gears}
     if starts > 1:
         text = m.wait("index to the next of")
@@ -299,9 +263,9 @@ def back_to_counter(m: Machine) -> str:
     return m.wait(re.compile(r"│ Pass counter │"))
 
 
-def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, od_typed: str,
-                  band: tuple[float, float], export_from_screen: bool):
+def run_whole_job(tmp_path: Path, j: KeypadJob):
     """Cut one whole job by keypad; return (machine, record state, card text, log)."""
+    units, starts, od_typed, band = j.units, j.starts, j.od_typed, j.band
     reason = tmux.missing_tools()
     if reason:
         pytest.skip(reason)
@@ -310,7 +274,7 @@ def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, o
     data = tmp_path / "record"
     m = Machine(tmp_path, config, data)
     try:
-        designation = choose_thread(m, walk, starts, want)
+        designation = choose_thread(m, j.choose, starts, j.want)
         text = m.wait("Question 1 of")
         lead_mm = Fraction(find(r"lead (\d+\.\d+) mm", text, "lead")[1])
         found = set_up_lathe(m, facts, lead_mm, starts)
@@ -361,7 +325,7 @@ def run_whole_job(tmp_path: Path, *, units: str, walk, starts: int, want: str, o
             m.wait(lambda t: PASS_OF.search(t) or SPRING.search(t) or ALL_CUT.search(t))
         final = readings[-1]
         assert final["state"] == "in_band", final["text"]
-        card = export_card(m, data, export_from_screen)
+        card = export_card(m, data, j.export_from_screen)
         with Store.open_read_only(data) as store:
             jobs = store.jobs(include_archived=True)
             state = fold(store.events(jobs[0].id))
@@ -447,7 +411,7 @@ def check_card(card: str, state, unit: str, band: tuple[float, float], sim: Thre
     assert abs(last.pd_mm - sim.pitch_diameter()) < 0.003
     assert lo * to_unit - 1e-9 <= sim.pitch_diameter() <= hi * to_unit + 1e-9
     # the plain three-wire relation inverts the typed reading: the record's simple PD is
-    # M - W(1 + cosec 30°) + (P/2) cot 30° (published-values.md §5, 60° constants 3 / 0.866025)
+    # M - W(1 + cosec 30°) + (P/2) cot 30° (NBS Handbook H28, three-wire method, 60° constants 3 / 0.866025)
     p = sim.pitch_mm
     assert last.payload["pd_simple_mm"] == pytest.approx(
         last.measured_mm - 3.0 * last.wire_mm + 0.866025 * p, abs=2e-6)
@@ -456,26 +420,19 @@ def check_card(card: str, state, unit: str, band: tuple[float, float], sim: Thre
 # ---------------------------------------------------------------------------------------------
 # The jobs
 
-M10_WALK = [("Thread family", "ISO metric"), ("Size", "M10"), ("Pitch", "1.5 mm coarse"),
-            ("External or internal", "external (screw)"), ("Class of fit", "6g")]
-UNC_WALK = [("Thread family", "Unified inch"), ("Series", "UNC"), ("Size", "3/8"),
-            ("Pitch", "16 tpi UNC"), ("External or internal", "external (screw)"),
-            ("Class of fit", "2A")]
-M10_6G = (8.862, 8.994)        # ISO 965-2, M10x1.5-6g d2 min / max (published-values.md §1)
-UNC_2A = (0.3287, 0.3331)      # ASME B1.1 table, 3/8-16 UNC-2A PD min / max (published-values.md §2)
+M10_6G = job("M10x1.5-6g").band
+UNC_2A = job("3/8-16 UNC-2A").band
 
 
 def test_m10_metric_job_by_keypad(tmp_path):
-    m, state, card, run = run_whole_job(
-        tmp_path, units="mm", walk=M10_WALK, starts=1, want="M10x1.5-6g",
-        od_typed="9.95", band=M10_6G, export_from_screen=True)
+    m, state, card, run = run_whole_job(tmp_path, job("M10x1.5-6g"))
     # 60 > idler > 127 on the 8 tpi leadscrew: 25.4/8 × 60/127 = 1.5 mm exactly
-    # computed with Fraction, published-values.md §8 (8 tpi × 120/127 = 3.000 mm)
+    # computed with Fraction, Rose, Modern Machine Shop Practice (8 tpi × 120/127 = 3.000 mm)
     assert gear_lead_mm("60 > idler > 127", 8) == Fraction(3, 2)
     assert run["found"]["gears"]
-    # metric lead on an inch leadscrew: keep the half nut closed (published-values.md §7)
+    # metric lead on an inch leadscrew: keep the half nut closed (Jones, Turning and Boring (1914))
     assert "keep the half nut closed" in run["found"]["half_nut"].lower()
-    # modified flank at 29.5° from the cross-slide (published-values.md §6)
+    # modified flank at 29.5° from the cross-slide (US Navy machinery training manual)
     assert run["angle"] == 29.5
     check_card(card, state, "mm", M10_6G, run["sim"])
     assert "6g" in card and "M10x1.5-6g" in card
@@ -483,20 +440,16 @@ def test_m10_metric_job_by_keypad(tmp_path):
 
 
 def test_unc_inch_job_by_keypad(tmp_path):
-    m, state, card, run = run_whole_job(
-        tmp_path, units="in", walk=UNC_WALK, starts=1, want="3/8-16 UNC-2A",
-        od_typed="0.3730", band=UNC_2A, export_from_screen=False)
+    m, state, card, run = run_whole_job(tmp_path, job("3/8-16 UNC-2A"))
     # 16 tpi from an 8 tpi leadscrew: ratio 1/2 exactly, lead 25.4/16 mm
-    # computed with Fraction from the train on the screen (published-values.md §8)
+    # computed with Fraction from the train on the screen (Rose, Modern Machine Shop Practice)
     assert gear_lead_mm(run["found"]["gears"], 8) == Fraction(254, 160)
     check_card(card, state, "in", UNC_2A, run["sim"])
     assert "3/8-16 UNC-2A" in card
 
 
 def test_two_start_job_shows_the_indexing_step(tmp_path):
-    m, state, card, run = run_whole_job(
-        tmp_path, units="mm", walk=M10_WALK, starts=2, want="M10", od_typed="9.95",
-        band=M10_6G, export_from_screen=False)
+    m, state, card, run = run_whole_job(tmp_path, job("M10x1.5 two starts"))
     facts = run["facts"]
     found = run["found"]
     assert found["indexing"], found
@@ -532,17 +485,17 @@ def test_simulator_against_published_relations():
     pitch = 1.5
     sim = ThreadSim(10.0, pitch, 0.0, 60.0, "radius", 0.0, 0.001, "mm")
     # a sharp V cut to the basic depth 5/8 H below a crest at the basic major leaves the basic
-    # PD: ISO 68-1, H = 0.866025P, d2 = d - 0.649519P (published-values.md §1); here the
+    # PD: ISO 68-1, H = 0.866025P, d2 = d - 0.649519P; here the
     # sharp V from the OD reaches PD = OD - 2·depth + H, so depth = (d - d2 + H) / 2
     h = 0.8660254 * pitch
     sim.cut_to((10.0 - (10.0 - 0.649519 * pitch) + h) / 2)
     assert sim.pitch_diameter() == pytest.approx(10.0 - 0.649519 * pitch, abs=1e-6)
-    # no lead: the plain relation, 60° constants M = E + 3W - 0.866025P (published-values.md §5)
+    # no lead: the plain relation, 60° constants M = E + 3W - 0.866025P (NBS Handbook H28, three-wire method)
     w = 0.866
     assert sim.over_wires(w) == pytest.approx(sim.pitch_diameter() + 3 * w - 0.866025 * pitch,
                                               abs=1e-6)
     # H28 lead term: 1/4-20, E 0.2175, W 0.0289 in, lead 0.05 in: 0.000116 in
-    # (published-values.md §5, [C])
+    # (NBS Handbook H28, three-wire method, [C])
     inch = ThreadSim(0.25, 0.05, 0.05, 60.0, "radius", 0.0, 0.0001, "in")
     plain = 0.2175 + 3 * 0.0289 - 0.866025 * 0.05
     assert inch.over_wires(0.0289, pd_mm=0.2175) - plain == pytest.approx(0.000116, abs=2e-6)
@@ -562,14 +515,14 @@ def test_simulator_against_published_relations():
     assert abs(value * INCH - mic.over_wires(0.9)) <= 0.5 * 0.00254 + 1e-9
     assert mic.typed(0.9) == f"{value:.4f}"
     assert r.typed(0.866) == f"{r.reading(0.866):.3f}"
-    # the compound at 29.5°: travel = radial / cos 29.5° = radial × 1.14896 (published §6)
+    # the compound at 29.5°: travel = radial / cos 29.5° = radial × 1.14896 (US Navy machinery training manual)
     assert radial_from_dial(10, 0.0254, 29.5) * 1.14896 == pytest.approx(0.254, abs=1e-5)
 
 
 def test_gear_lead_helper_against_the_published_train():
-    # 8 tpi leadscrew × 120/127 = 3.000 mm (published-values.md §8), written as a simple train
+    # 8 tpi leadscrew × 120/127 = 3.000 mm (Rose, Modern Machine Shop Practice), written as a simple train
     assert gear_lead_mm("120 > idler > 127", 8) == Fraction(3)
-    # compound: 4 tpi leadscrew, 36/48 × 66/18 → 11 tpi (Rose, published-values.md §8);
+    # compound: 4 tpi leadscrew, 36/48 × 66/18 → 11 tpi (Rose);
     # our reading "a/b x c/d" has drivers a, c: 36/18 x 66/48 is that train on an 8 tpi screw
     # giving 25.4/8 × (36·66)/(18·48) = 25.4/8 × 2.75 mm
     assert gear_lead_mm("36/18 x 66/48", 8) == Fraction(254, 80) * Fraction(36 * 66, 18 * 48)

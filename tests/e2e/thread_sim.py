@@ -18,15 +18,15 @@ The model:
   0.866025P.) It holds once the flanks have cut past the pitch line (depth is read on the deepest
   cut so far; a spring pass cuts no deeper).
 * The reading over three wires of size W: the published relation with the lead-angle term
-  (NBS Handbook H28 / ASME B1.2 form, published-values.md section 5):
+  (NBS Handbook H28 / ASME B1.2 form):
   M = E + W (1 + cosec a + 1/2 tan^2(lambda) cos a cot a) - (P/2) cot a, tan(lambda) = L/(pi E).
   With lambda = 0 it is the plain relation M = E + W(1 + cosec a) - (P/2) cot a. The lead term
   matters for a two-start thread (lead twice the pitch); the app itself uses the exact helical
   model, so the two agree to a few tenths of a micrometre, not exactly (that is the point: the
   readings do not come from the code under test).
 
-References: ISO 68-1 basic profile (H = 0.866025P); published-values.md section 5 (three-wire
-relation, H28 lead-angle term); section 6 (compound travel = radial depth / cos angle).
+References: ISO 68-1 basic profile (H = 0.866025P); NBS Handbook H28, three-wire method (three-wire
+relation, H28 lead-angle term); compound travel = radial depth / cos angle, from the geometry.
 """
 
 from __future__ import annotations
@@ -91,7 +91,7 @@ class ThreadSim:
     def over_wires(self, wire_mm: float, pd_mm: float | None = None) -> float:
         """Return the true distance over three wires [mm] (unrounded) at ``pd_mm`` (default now).
 
-        References: published-values.md section 5 (H28 / ASME B1.2 form with the lead term).
+        References: NBS Handbook H28 / ASME B1.2 form with the lead term.
         """
         e = self.pitch_diameter() if pd_mm is None else pd_mm
         a = self.half_angle
@@ -117,7 +117,7 @@ def radial_from_dial(divisions: float, travel_per_division_mm: float, angle_deg:
     """Return the radial depth [mm] of ``divisions`` on a slide set ``angle_deg`` from the
     cross-slide (0 for the cross-slide itself).
 
-    travel_per_division_mm [mm]. References: published-values.md section 6 (compound travel =
+    travel_per_division_mm [mm]. References: US Navy machinery training manual (compound travel =
     radial depth / cos angle).
     """
     return divisions * travel_per_division_mm * math.cos(math.radians(angle_deg))

@@ -4,8 +4,8 @@ Each ``Pane`` has its own tmux server (``tmux -L <unique socket>``, ``-f`` a con
 the tester's ``~/.tmux.conf`` plays no part, status line off so the app gets all 24 rows,
 ``remain-on-exit`` on so the last screen and exit status of a command that stopped can be read).
 
-Keys go in the way tmux delivers a numeric keypad to the program (see /work/shared/PLATFORM.md,
-"Keys from a numeric keypad"): digits, ``.`` and ``+ - * /`` literally, keypad Enter as ``C-j``,
+Keys go in the way tmux delivers a numeric keypad to the program (DEVELOPERS.md,
+"Keys"; verified with tmux and Textual 8.2.8): digits, ``.`` and ``+ - * /`` literally, keypad Enter as ``C-j``,
 NumLock-off keys by their tmux names (``Up``, ``Home``, ``PPage`` ...).
 
 References: tmux 3.3 manual (new-session -x/-y/-e, send-keys -l, capture-pane -p,
@@ -24,7 +24,7 @@ import uuid
 from pathlib import Path
 from typing import Callable, Iterable, Pattern
 
-#: Keypad Enter as tmux delivers it to the program (PLATFORM.md: it arrives as ctrl+j).
+#: Keypad Enter as tmux delivers it to the program (DEVELOPERS.md, Keys: it arrives as ctrl+j).
 KEYPAD_ENTER = "C-j"
 #: Key names passed to ``send-keys`` as names (not typed letter by letter).
 KEY_NAMES = frozenset({

@@ -51,10 +51,10 @@ async def test_chuck_job_walked_with_enter_one_undone(make_app):
         await set_up(app, pilot, held="chuck", runout="mark")
         text = screen_text(app)
         assert "Carrier" not in text                       # work in a chuck: no carrier item
-        # 29.5° from the cross-slide for a 60° thread # published-values.md §6 (US Navy manual);
+        # 29.5° from the cross-slide for a 60° thread # (US Navy manual);
         # the sample lathe's scale reads 0 along the cross-slide (sample_config.toml angle_zero)
         assert "Compound set to 29.5 deg on its scale" in text
-        # metric lead on an 8 tpi leadscrew # published-values.md §7 (the factor 127)
+        # metric lead on an 8 tpi leadscrew # Jones, Turning and Boring (1914) (the factor 127)
         assert "Half nut: Keep the half nut closed" in text
         assert "Stopping point marked" in text and "Thread relief cut" not in text
         for safety in ("Chuck key out, guards on, eye protection on", "No gloves"):
@@ -103,7 +103,7 @@ async def test_compound_as_a_bed_zeroed_scale_reads(make_app):
     app.lathe = replace(app.lathe, compound_zero="bed")
     async with app.run_test(size=(80, 24)) as pilot:
         await set_up(app, pilot)
-        # 90 − 29.5 # published-values.md §6 (scales read 0 parallel to the bed: set 60.5°)
+        # 90 − 29.5 # US Navy machinery training manual (scales read 0 parallel to the bed: set 60.5°)
         assert "Compound set to 60.5 deg on its scale" in screen_text(app)
 
 
@@ -112,7 +112,7 @@ async def test_compound_from_the_counter_values_when_recorded(make_app):
     async with app.run_test(size=(80, 24)) as pilot:
         await set_up(app, pilot)
         # as the counter records a flank set-up (DEVELOPERS.md set-up keys); 30 = 60/2
-        # # published-values.md §6 (half the included angle in some texts)
+        # # US Navy machinery training manual (half the included angle in some texts)
         app.record_setup({"method": "flank", "compound_angle_deg": 30.0,
                           "compound_angle_set": 30.0})
         app.screen.redraw()
@@ -137,11 +137,11 @@ async def test_whitworth_compound_and_left_hand_item(make_app):
     async with app.run_test(size=(80, 24)) as pilot:
         await set_up(app, pilot, designation="5/8 BSW LH")
         text = screen_text(app)
-        # 27.5 − 0.5 … the modified flank for 55°: 27° # published-values.md §6 (27–27.5°)
+        # 27.5 − 0.5 … the modified flank for 55°: 27° # US Navy machinery training manual (27–27.5°)
         assert "Compound set to 27 deg on its scale" in text
         assert "Leadscrew reversed for a left-hand thread" in text
         # 11 tpi on an 8 tpi leadscrew with 16 teeth and 8 lines: lines 1 and 5
-        # # computed from published-values.md §7 (see test_setup_screen)
+        # # computed from Jones, Turning and Boring (1914) (see test_setup_screen)
         assert "Half nut: Close the half nut on lines 1 or 5." in text
 
 

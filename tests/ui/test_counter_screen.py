@@ -30,8 +30,8 @@ def expected_pass_counts(tip_r=TIP_R, od=OD_IN * IN):
     Total radial = (OD − PD aim)/2 + (P/4)·cot 30° − r·(1/sin 30° − 1)   # computed from the
     ISO 68-1 basic profile (groove P/2 wide at the pitch line) and a nose radius tangent to
     both flanks; passes n = ⌈0.3·(ap/0.2)²⌉ + 1 and cumulative Δap_x = ap/√(n−1)·√φ   #
-    computed from the constant chip-area formula, published-values.md §6 (threading-tool
-    handbooks); compound travel = radial / cos 29.5° (published-values.md §6).
+    computed from the constant chip-area formula, threading-tool handbooks (constant chip area) (threading-tool
+    handbooks); compound travel = radial / cos 29.5°.
     """
     aim = (PD_MAX + PD_MIN) / 2
     ap = (od - aim) / 2 + P / 4 / math.tan(math.radians(30)) - tip_r * (1 / math.sin(math.radians(30)) - 1)
@@ -212,7 +212,7 @@ async def test_replan_after_wire_reading(make_app):
         await pilot.pause()
         text = screen_text(app)
         assert "Replanned from wire reading" in text
-        # radial left = (PD now − aim)/2, aim = mid of ISO 965-2 6g band (published-values §1)
+        # radial left = (PD now − aim)/2, aim = mid of ISO 965-2 6g band
         left = (pd_now - (PD_MAX + PD_MIN) / 2) / 2
         total = done + left
         shown = float(re.search(r"of ([0-9.]+) in \(radial\)", text).group(1))

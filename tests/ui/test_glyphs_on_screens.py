@@ -5,7 +5,8 @@ written is skipped with the reason), plus the menu, help and yes/no modals and t
 screen text includes borders, the status line and the key bar. The font lists are derived from
 the Debian console fonts (tests/glyphs.py; Lat15-Fixed16 and Uni2-Fixed16, their intersection).
 
-References: /work/shared/PLATFORM.md, "Colours and glyphs on the Linux console".
+References: the Unicode tables of Debian console-setup-linux's Lat15-Fixed16 and Uni2-Fixed16
+(tests/data/console_glyphs_*.txt).
 """
 
 from __future__ import annotations
@@ -52,8 +53,8 @@ def _report(where: str, lines: list[str]) -> str:
 
 
 def test_the_glyph_check_itself_flags_a_known_missing_glyph():
-    # PLATFORM.md: the console fonts lack U+258C (left half block), have the box drawing set
-    assert missing_glyphs("│─╭╮▌") == {"▌"}   # /work/shared/PLATFORM.md, console fonts
+    # the console fonts (tests/data/console_glyphs_*.txt) lack U+258C (left half block), have the box drawing set
+    assert missing_glyphs("│─╭╮▌") == {"▌"}   # console-setup-linux fonts lack ▌
     assert "│" in console_glyphs() and "█" in console_glyphs()   # same source
 
 

@@ -276,7 +276,7 @@ async def test_sample_wire_and_reading_mistakes_are_refused_in_place(make_app):
         await pick(pilot, app, "another size: type it")
         entry = app.screen.query_one("#number")
         await type_in(pilot, ".3")
-        # NBS H28 / published-values §5: the smallest wire for 60°, P 1.5 is 0.505 P = 0.758 mm
+        # NBS H28 / the smallest wire for 60°, P 1.5 is 0.505 P = 0.758 mm
         assert "too small" in screen_text(app) and entry.value == ".3"
         await pilot.press("backspace", "8", "6", "6", "enter")      # ".866"
         assert "Reading over the 0.866 mm wires on the sample bolt" in screen_text(app)

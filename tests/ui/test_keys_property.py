@@ -9,7 +9,7 @@ job M10x1.5-6g that is being prepared or already has passes cut. After every key
 * the history only grows (every entry written stays, in order), and a pass that leaves the
   passes in force has an undo entry naming it.
 
-Each key press costs about 60 ms (PLATFORM.md), so the examples are few and short.
+Each key press costs about 60 ms (measured with Textual 8.2.8), so the examples are few and short.
 """
 
 from __future__ import annotations
@@ -31,7 +31,7 @@ from tests.ui.conftest import screen_text
 DESIGNATION = "M10x1.5-6g"
 BLANK_OD = "9.97mm"          # just over M10x1.5-6g d max 9.968 # ISO 965-2, M10x1.5-6g d max
 
-#: Every key a numeric keypad can send, by the names Textual gives them (PLATFORM.md, "Keys").
+#: Every key a numeric keypad can send, by the names Textual gives them (DEVELOPERS.md, "Keys").
 KEYPAD = ("0", "1", "2", "3", "4", "5", "6", "7", "8", "9", "full_stop", "decimal", "enter",
           "ctrl+j", "backspace", "plus", "add", "minus", "subtract", "asterisk", "multiply",
           "slash", "divide")

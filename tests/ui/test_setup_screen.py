@@ -53,7 +53,7 @@ def owns(*teeth: int) -> bool:
 @lru_cache(maxsize=None)
 def every_lead() -> frozenset[Fraction]:
     """Every lead the sample gears can make: leadscrew × Π drivers / Π driven, with the clearance
-    rule for compound trains. # computed from published-values.md §8 (work pitch = leadscrew
+    rule for compound trains. # computed from Rose, Modern Machine Shop Practice (work pitch = leadscrew
     pitch × Π drivers / Π driven; a pair exceeds the third gear by the clearance, common practice)
     """
     teeth = sorted(OWNED)
@@ -125,12 +125,12 @@ async def test_metric_on_inch_leadscrew_exact_train_and_half_nut_closed(make_app
     app = make_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await open_setup(app, pilot, "M10x1.5-6g")
-        # 127/40 × 60/127 = 3/2 exactly # computed from published-values.md §8 (127 = 5 × 25.4)
+        # 127/40 × 60/127 = 3/2 exactly # computed from Rose, Modern Machine Shop Practice (127 = 5 × 25.4)
         assert LEADSCREW_MM * Fraction(60, 127) == Fraction(3, 2)
         assert "60 > idler > 127" in gear_rows(app)[0] and "exact" in gear_rows(app)[0]
         text = screen_text(app)
         assert "Driver 60 on the stud" in text and "driven 127 on the" in text
-        # 16 × (127/40) / (3/2) is not whole: no dial line repeats # published-values.md §7
+        # 16 × (127/40) / (3/2) is not whole: no dial line repeats # Jones, Turning and Boring (1914)
         assert (DIAL_TEETH * LEADSCREW_MM / Fraction(3, 2)).denominator != 1
         assert "Keep the half nut closed" in text
         assert "switched off" in text                            # safety note on changing gears
@@ -156,7 +156,7 @@ async def test_pick_second_train_confirm_and_payload(make_app):
         train = values["train"]
         assert train["drivers"] == [a, c] and train["driven"] == [b, d]
         assert Fraction(train["ratio"]) == Fraction(a * c, b * d)
-        # computed from leadscrew × A·C / (B·D), published-values.md §8
+        # computed from leadscrew × A·C / (B·D), Rose, Modern Machine Shop Practice
         assert train["lead_made_mm"] == pytest.approx(float(LEADSCREW_MM * Fraction(a * c, b * d)))
         assert train["error_pct"] == pytest.approx(
             float((LEADSCREW_MM * Fraction(a * c, b * d) / Fraction(3, 2) - 1) * 100))
@@ -176,7 +176,7 @@ async def test_inch_thread_dial_lines_and_recorded_plan(make_app):
         await open_setup(app, pilot, "5/8 BSW")   # BS 84: 11 tpi
         lead = Fraction(254, 10) / 11
         # line k is (k−1)·T/K teeth on; usable when that many leadscrew pitches are whole leads
-        # and a whole dial turn is too # computed from published-values.md §7 (Jones)
+        # and a whole dial turn is too # computed from (Jones)
         step = DIAL_TEETH // DIAL_LINES
         assert (DIAL_TEETH * LEADSCREW_MM / lead).denominator == 1
         lines = [k for k in range(1, DIAL_LINES + 1)
@@ -256,7 +256,7 @@ async def test_gearbox_only_lathe_records_box(make_app):
                                                       GearboxPosition("B", Fraction(1))))
     async with app.run_test(size=(80, 24)) as pilot:
         await open_setup(app, pilot, "3/8-16 UNC-2A")    # ASME B1.1: 16 tpi
-        # 8 tpi × 1/2 = 16 tpi, exactly # computed from published-values.md §8
+        # 8 tpi × 1/2 = 16 tpi, exactly # computed from Rose, Modern Machine Shop Practice
         assert LEADSCREW_MM * Fraction(1, 2) == Fraction(254, 10) / 16
         assert "box A alone" in gear_rows(app)[0] and "exact" in gear_rows(app)[0]
         assert "Set the gearbox to A" in screen_text(app)
@@ -346,7 +346,7 @@ def test_dial_payload_matches_integer_dial_arithmetic(tpi):
     lead = Fraction(254, 10) / tpi
     payload = plan_payload(plan_for(lathe, lead, 1))
     step = DIAL_TEETH // DIAL_LINES
-    # computed from published-values.md §7: a whole dial turn and the line's travel are both
+    # computed from Jones, Turning and Boring (1914): a whole dial turn and the line's travel are both
     # whole leads; p/L = tpi / 8 for an 8 tpi leadscrew
     if (DIAL_TEETH * Fraction(tpi, 8)).denominator != 1:
         assert payload["keep_half_nut_closed"] and payload["lines"] == []

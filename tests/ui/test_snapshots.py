@@ -32,7 +32,7 @@ SIZES = ((80, 24), (100, 30))
 THEMES = ("shop-bright", CONSOLE_THEME)
 SCREENS = [*REGISTRY, "menu", "help"]
 INCH = 25.4                    # mm in one inch, exact # ISO 31-1 / NIST SP 811
-# ISO 965-2, M10x1.5-6g d2 max / min [mm] (published-values.md §1), and in inches to 0.0001
+# ISO 965-2, M10x1.5-6g d2 max / min [mm], and in inches to 0.0001
 # (computed from mm / 25.4)
 PD_MAX_MM, PD_MIN_MM = 8.994, 8.862
 PD_MAX_IN, PD_MIN_IN = f"{PD_MAX_MM / INCH:.4f}", f"{PD_MIN_MM / INCH:.4f}"

@@ -79,7 +79,7 @@ def test_console_theme_uses_only_ansi_names_and_distinct_roles():
                                             "surface", "panel", "boost")]
     colours += [v for k, v in theme.variables.items() if not k.endswith("style")]
     assert all(c.startswith("ansi_") for c in colours), colours
-    # The Linux console has 8 background colours: ansi 0-7 # /work/shared/PLATFORM.md
+    # The Linux console has 8 background colours: ansi 0-7 # console_codes(4), SGR 40-47
     eight = {"ansi_black", "ansi_red", "ansi_green", "ansi_yellow", "ansi_blue", "ansi_magenta",
              "ansi_cyan", "ansi_white"}
     backgrounds = [theme.background, theme.surface, theme.panel, theme.boost] + [
@@ -224,7 +224,7 @@ async def test_glyph_check_catches_what_console_css_and_scrollbars_fix():
         await pilot.pause(0.1)
         missing = missing_glyphs(_screen_text(app))
         # Input's default "tall" border draws ▊ ▎ ▔ ▁, a toast's "outer" edge ▌, scrollbar
-        # thumb ends eighth blocks # /work/shared/PLATFORM.md
+        # thumb ends eighth blocks # console-setup-linux fonts lack them
         assert {"▊", "▎", "▌"} <= missing
         assert missing & set("▁▂▃▄▅▆▇")
 

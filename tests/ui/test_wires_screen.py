@@ -26,18 +26,18 @@ from tests.glyphs import missing_glyphs  # noqa: E402
 
 MM_PER_INCH = 25.4                      # NIST SP 811: 1 in = 25.4 mm exactly
 COS_29_5 = math.cos(math.radians(29.5))  # compound at 29.5° from the cross-slide, US Navy
-#                                          machinery training manual (published-values.md §6)
+#                                          machinery training manual (US Navy machinery training manual)
 DIAL_MM = 0.001 * MM_PER_INCH           # demo config: 0.001 in per division, on radius
 
-# ISO 965-2 (published-values.md §1), M10x1.5-6g pitch diameter max / min [mm]
+# ISO 965-2, M10x1.5-6g pitch diameter max / min [mm]
 M10_PD_MAX, M10_PD_MIN = 8.994, 8.862
-# ASME B1.1 table (published-values.md §2), 1/4-20 UNC-2A pitch diameter max / min [in]
+# ASME B1.1 table, 1/4-20 UNC-2A pitch diameter max / min [in]
 Q20_PD_MAX, Q20_PD_MIN = 0.2164, 0.2127
 
 
 def pd_from_wires_60(m: float, wire: float, pitch: float) -> float:
     """PD from M over wires, 60° form, one start, by the NBS H28 / ASME B1.2 lead-angle formula
-    E = M + 0.866025P − W(3 + 0.75·tan²λ), tan λ = L/(πE) (published-values.md §5), iterated."""
+    E = M + 0.866025P − W(3 + 0.75·tan²λ), tan λ = L/(πE) (NBS Handbook H28, three-wire method), iterated."""
     e = m + 0.8660254037844386 * pitch - 3 * wire
     for _ in range(60):
         tan_l = pitch / (math.pi * e)
@@ -54,7 +54,7 @@ def over_wires_60(e: float, wire: float, pitch: float) -> float:
 def compound_divisions(e: float, pd_max: float, pd_min: float, dial_mm: float) -> int:
     """Whole compound divisions from PD ``e`` to the middle of the band: of the two whole numbers
     either side of the exact count, the one that lands in the band nearest the middle.
-    Computed from PD falls by 2 × radial, compound travel = radial / cos 29.5° (§6)."""
+    Computed from PD falls by 2 × radial, compound travel = radial / cos 29.5° (US Navy machinery training manual)."""
     aim = (pd_max + pd_min) / 2
     exact = (e - aim) / 2 / COS_29_5 / dial_mm
     after = lambda n: e - 2 * n * dial_mm * COS_29_5   # noqa: E731
@@ -95,7 +95,7 @@ async def test_m10_reading_shows_feed_on_compound_and_records_it(make_app):
         await open_wires(app, pilot, "M10x1.5-6g")
         text = screen_text(app)
         assert "0.866 mm" in text                       # best owned wire: 0.866 = 0.57735 × 1.5
-        #                                                 (best wire P/(2 cos 30°), §5)
+        #                                                 (best wire P/(2 cos 30°), NBS Handbook H28)
         # band over the 0.866 wire, re-derived: M at PD max and PD min
         assert f"{over_wires_60(M10_PD_MAX, 0.866, 1.5):.3f} (PD max 8.994)" in text
         assert f"{over_wires_60(M10_PD_MIN, 0.866, 1.5):.3f} (PD min 8.862)" in text
@@ -103,7 +103,7 @@ async def test_m10_reading_shows_feed_on_compound_and_records_it(make_app):
 
         await pilot.press(*"10.320", "enter")
         text = screen_text(app)
-        e = pd_from_wires_60(10.320, 0.866, 1.5)        # computed from H28 formula, §5
+        e = pd_from_wires_60(10.320, 0.866, 1.5)        # computed from H28 formula, NBS Handbook H28
         assert abs(shown_number(text, "→ PD") - e) <= 0.0006   # shown to 0.001 mm
         n = compound_divisions(e, M10_PD_MAX, M10_PD_MIN, DIAL_MM)
         assert n == 2                                    # computed above: 2.07 → 2 in the band
@@ -236,7 +236,7 @@ async def test_quarter_20_unc_2a_in_inches(make_app):
         await open_wires(app, pilot, "1/4-20 UNC-2A")
         text = screen_text(app)
         w = 0.029                                   # owned set nearest the best 0.57735/20 =
-        #                                             0.0289 in (§5)
+        #                                             0.0289 in (NBS Handbook H28)
         assert "wire 0.0290 in" in text
         p = 1 / 20
         assert f"{over_wires_60(Q20_PD_MAX, w, p):.4f} (PD max 0.2164)" in text
@@ -303,7 +303,7 @@ async def test_choose_another_wire_and_a_measured_size(make_app):
         picks = app.screen.query_one("#wire-list")
         labels = [lbl for lbl, _ in picks.page_items()]
         assert labels[0].startswith("0.866 mm")      # best first
-        # 60° wire range 0.505182P–1.010363P (§5) = 0.758–1.516 mm: 0.577 is too small
+        # 60° wire range 0.505182P–1.010363P (NBS Handbook H28) = 0.758–1.516 mm: 0.577 is too small
         assert not any(lbl.startswith("0.577") for lbl in labels)
         assert 0.505182 * 1.5 > 0.577
         await pilot.press(str(labels.index("type a measured size") + 1))

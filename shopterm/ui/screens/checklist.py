@@ -35,7 +35,7 @@ def compound_setting(spec, lathe, setup: dict) -> tuple[float, float]:
 
     From the set-up when the counter recorded it; else from its method; else the default
     modified-flank method for the thread's form angle.
-    References: published-values.md §6 (via ``shopterm.cutting.infeed``).
+    References: US Navy machinery training manual (via ``shopterm.cutting.infeed``).
     """
     true = setup.get("compound_angle_deg")
     scale = setup.get("compound_angle_set")

@@ -1,4 +1,9 @@
-"""Choosing the thread: type a designation, or walk group → series → size → pitch → kind → class."""
+"""Choosing the thread: a recent or favourite one, the list walk (group → common sizes, or
+series → size → pitch), or a designation typed (letters, or numbers with ``.``: 10.1.5).
+
+A thread picked from a list is the catalogue's: external, the usual class; "This thread"
+turns it internal, changes the class, the hand and the starts.
+"""
 
 from __future__ import annotations
 
@@ -13,7 +18,7 @@ from textual.widgets import Static
 from shopterm.errors import ShoptermError
 from typing import TYPE_CHECKING
 
-from shopterm.standards import classes, limits, parse, walk
+from shopterm.standards import classes, limits, numeric, parse, walk
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.widgets.entry import KeypadEntry
@@ -32,12 +37,13 @@ class Walk:
     """What has been picked so far in the list walk."""
 
     group: str | None = None
+    more: bool = False                     # past the group's common sizes
     series: str | None = None
     size: str | None = None
     base: ThreadSpec | None = None         # size and pitch picked
-    kind: str | None = None
-    cls: str | None = "unset"             # "unset" until picked; None = basic size
+    kind: str | None = None                # a special thread's kind
     spec: ThreadSpec | None = None         # the complete thread
+    choosing_class: bool = False           # the class list, for ``spec``
     special: dict = field(default_factory=dict)
     history: list = field(default_factory=list)
 
@@ -113,11 +119,16 @@ class ThreadScreen(ShopScreen):
     SCREEN_NAME = "thread"
     AUTO_FOCUS = "#choices"
     TITLE = "Thread"
-    BINDINGS = [keys.bind("tab", "type_designation", "type", show=False)]
-    HELP = (("1-9", "pick from the numbered list; 0 = next page"),
+    BINDINGS = [keys.bind("tab", "type_designation", "type", show=False),
+                keys.bind("full_stop,decimal", "type_number", "type a size")]
+    HELP = (("then", "digits and points: 10 = M10 coarse, 10.1.25 = M10x1.25, 1.6.0.35 = "
+                     "M1.6x0.35; inch as numerator.denominator.tpi: 3.8.16 = 3/8-16, "
+                     "1.1.4.7 = 1-1/4-7, 1.1.8 = 1-8"),
+            ("1-9", "pick from the numbered list; 0 = next page"),
             ("-", "go back one step in the list"),
             ("letter", "start typing a designation (M10x1.5-6g, 1/4-20 UNC-2A, 2BA …)"),
             ("Enter", "in the designation field: look it up; on the result: use this thread"))
+    NUMBER_PROMPT = "Size.pitch: "
 
     def __init__(self) -> None:
         super().__init__()
@@ -137,18 +148,29 @@ class ThreadScreen(ShopScreen):
     def on_mount(self) -> None:
         super().on_mount()
         picks = self.query_one("#choices", PickList)
-        picks.type_into(self.query_one("#designation", KeypadEntry))
+        picks.type_into(self.query_one("#designation", KeypadEntry), self.NUMBER_PROMPT)
         picks.focus()
         self.show_step()
 
     # -- typed designation -------------------------------------------------------------------
     def action_type_designation(self) -> None:
-        self.query_one("#designation", KeypadEntry).focus()
+        entry = self.query_one("#designation", KeypadEntry)
+        entry.begin_text()
+        entry.focus()
+
+    def action_type_number(self) -> None:
+        entry = self.query_one("#designation", KeypadEntry)
+        entry.begin_number(self.NUMBER_PROMPT)
+        entry.focus()
 
     def on_key(self, event: events.Key) -> None:
         entry = self.query_one("#designation", KeypadEntry)
         ch = event.character
-        if not entry.has_focus and ch and (ch.isalpha() or ch == "#"):
+        if (not entry.has_focus or not entry.text_mode) and ch and (ch.isalpha() or ch == "#"):
+            if not entry.text_mode:            # a letter after the point key: a designation
+                value = entry.value
+                entry.begin_text()
+                entry.value = value
             entry.focus()
             entry.value += ch
             event.stop()
@@ -159,8 +181,12 @@ class ThreadScreen(ShopScreen):
         if not text:
             self.query_one("#choices").focus()
             return
+        others: list[ThreadSpec] = []
         try:
-            spec = parse(text)
+            if numeric.is_numeric(text):
+                spec, *others = numeric.candidates(text)
+            else:
+                spec = parse(text)
             limits(spec)
         except ShoptermError as exc:
             self.say(str(exc), error=True)
@@ -169,24 +195,43 @@ class ThreadScreen(ShopScreen):
         self.walk.spec = spec
         self.remember(spec)
         self.query_one("#choices", PickList).focus()   # Enter now means "use it"
-        self.say(f"{spec.designation}: Enter uses it, + goes on to the set-up.")
+        also = f" (also {', '.join(s.designation for s in others)})" if others else ""
+        self.say(f"{spec.designation}: Enter uses it, + goes on to the set-up.{also}")
         self.show_step()
 
     # -- the list walk -----------------------------------------------------------------------
     def choices(self) -> tuple[str, list[tuple[str, object]]]:
         """Return (title, numbered items) for the step the walk is at."""
         w = self.walk
+        if w.spec is not None and w.choosing_class:
+            cls = classes(w.spec.with_(tol_class=None))
+            items = [(c, ("cls", c)) for c in cls]
+            if not cls or w.spec.family in ("whitworth", "ba"):
+                items.append((NO_CLASS, ("cls", None)))
+            return f"Class of fit ({w.spec.kind})", items
         if w.spec is not None:
-            hand = "left hand" if w.spec.hand == "LH" else "right hand"
-            return ("This thread", [("use it →", "use"), (f"hand: {hand}", "hand"),
-                                    (f"starts: {w.spec.starts}", "starts"),
+            spec = w.spec
+            hand = "left hand" if spec.hand == "LH" else "right hand"
+            other = "internal (nut)" if spec.is_external else "external (screw)"
+            return ("This thread", [("use it →", "use"), (f"make it {other}", "kind"),
+                                    (f"class: {spec.tol_class or NO_CLASS}", "class"),
+                                    (f"hand: {hand}", "hand"),
+                                    (f"starts: {spec.starts}", "starts"),
                                     ("choose again", "again")])
         if w.group is None:
-            items = [(g.title, ("group", g.key)) for g in walk.GROUPS]
-            items += [(f"recent {d}", ("recent", d)) for d in self.app_recent()[:3]]
-            return "Thread family (or type a designation)", items
+            favourites = self.app_favourites()
+            recent = [d for d in self.app_recent() if d not in favourites][:3]
+            items = [(f"recent {d}", ("typed", d)) for d in recent]
+            items += [(d, ("typed", d)) for d in favourites]
+            items += [(g.title, ("group", g.key)) for g in walk.GROUPS]
+            return "Thread family, favourite or recent (. types a size)", items
         if w.group == "special":
             return self.special_choices()
+        common = walk.common(w.group)
+        if common and not w.more:
+            return "Common sizes, coarse pitch", (
+                [(s.designation, ("thread", s)) for s in common]
+                + [("more sizes and pitches", ("more", True))])
         if w.series is None and len(walk.series(w.group)) > 1:
             return "Series", [(s, ("series", s)) for s in walk.series(w.group)]
         if w.size is None:
@@ -194,16 +239,6 @@ class ThreadScreen(ShopScreen):
         if w.base is None:
             specs = walk.pitches(w.group, w.series, w.size)
             return "Pitch", [(self.pitch_label(s), ("base", s)) for s in specs]
-        if w.kind is None:
-            return "External or internal", [("external (screw)", ("kind", "external")),
-                                            ("internal (nut)", ("kind", "internal"))]
-        if w.cls == "unset":
-            spec = w.base.with_(kind=w.kind, tol_class=None)
-            cls = classes(spec)
-            items = [(c, ("cls", c)) for c in cls]
-            if not cls or w.base.family in ("whitworth", "ba"):
-                items.append((NO_CLASS, ("cls", None)))
-            return "Class of fit", items
         return "", []
 
     @staticmethod
@@ -213,13 +248,6 @@ class ThreadScreen(ShopScreen):
         return f"{spec.pitch:g} mm" + (" coarse" if spec.pitch_implied else "")
 
     def show_step(self) -> None:
-        w = self.walk
-        if w.spec is None and w.group and w.cls != "unset" and w.kind and w.base:
-            try:
-                w.spec = self.complete_spec()
-            except ShoptermError as exc:
-                self.say(str(exc), error=True)
-                w.restore()
         title, items = self.choices()
         picks = self.query_one("#choices", PickList)
         number = self.query_one("#number", KeypadEntry)
@@ -239,12 +267,6 @@ class ThreadScreen(ShopScreen):
         self.query_one("#crumbs", Static).update(self.crumbs())
         self.show_result()
 
-    def complete_spec(self) -> ThreadSpec:
-        w = self.walk
-        spec = w.base.with_(kind=w.kind, tol_class=w.cls, pitch_implied=False)
-        limits(spec)  # refuses a class the tables lack
-        return spec
-
     def crumbs(self) -> Text:
         w = self.walk
         parts = []
@@ -255,10 +277,6 @@ class ThreadScreen(ShopScreen):
                 parts.append(v)
         if w.base is not None:
             parts.append(self.pitch_label(w.base))
-        if w.kind:
-            parts.append(w.kind)
-        if w.cls not in ("unset",):
-            parts.append(w.cls or NO_CLASS)
         return Text(" › ".join(parts), style="dim") if parts else Text("")
 
     def show_result(self) -> None:
@@ -281,14 +299,28 @@ class ThreadScreen(ShopScreen):
             self.final_option(value)
             return
         what, v = value
-        if what == "recent":
+        if what == "typed":                   # a recent or favourite designation
             try:
                 spec = parse(v)
+                limits(spec)
             except ShoptermError as exc:
                 self.say(str(exc), error=True)
                 return
             w.snapshot()
             w.spec = spec
+        elif what == "thread":                # a common size, as the catalogue has it
+            w.snapshot()
+            w.spec = v
+        elif what == "cls":
+            spec = w.spec.with_(tol_class=v)
+            try:
+                limits(spec)                  # refuses a class the tables lack for this size
+            except ShoptermError as exc:
+                self.say(str(exc), error=True)
+                return
+            w.snapshot()
+            w.spec = spec
+            w.choosing_class = False
         elif what == "special_pick":
             w.snapshot()
             key, choice = v
@@ -302,6 +334,8 @@ class ThreadScreen(ShopScreen):
                 specs = walk.pitches(w.group, w.series, w.size)
                 if len(specs) == 1:
                     w.base = specs[0]
+            if w.base is not None and w.group != "special":
+                w.spec = w.base.with_(pitch_implied=False)   # external, the usual class
         self.say("")
         if w.group == "special" and w.spec is None and self.special_done():
             self.make_special()
@@ -318,8 +352,15 @@ class ThreadScreen(ShopScreen):
             self.query_one("#designation", KeypadEntry).clear()
             self.show_step()
             return
+        if option == "class":
+            w.snapshot()
+            w.choosing_class = True
+            self.show_step()
+            return
         try:
-            if option == "hand":
+            if option == "kind":
+                spec = walk.with_kind(spec, "internal" if spec.is_external else "external")
+            elif option == "hand":
                 spec = spec.with_(hand="RH" if spec.hand == "LH" else "LH")
             elif option == "starts":
                 i = STARTS_CYCLE.index(spec.starts) if spec.starts in STARTS_CYCLE else 0
@@ -445,6 +486,9 @@ class ThreadScreen(ShopScreen):
     # -- recent threads ----------------------------------------------------------------------
     def app_recent(self) -> list[str]:
         return list(getattr(self.app, "recent_threads", lambda: [])())
+
+    def app_favourites(self) -> list[str]:
+        return list(getattr(self.app, "favourite_threads", lambda: [])())
 
     def remember(self, spec: ThreadSpec) -> None:
         hook = getattr(self.app, "remember_thread", None)

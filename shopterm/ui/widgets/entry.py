@@ -50,6 +50,8 @@ class KeypadEntry(Widget, can_focus=True):
         self.prompt = prompt
         self.placeholder = placeholder
         self.text_mode = text
+        self._text_default = text
+        self._prompt_default = prompt
         self.max_length = max_length
         self.set_reactive(KeypadEntry.value, value)
 
@@ -65,6 +67,22 @@ class KeypadEntry(Widget, can_focus=True):
 
     def clear(self) -> None:
         self.value = ""
+
+    def begin_number(self, prompt: str | None = None) -> None:
+        """Start an empty numeric entry in a text-mode field (digits and points only, so
+        ``+ - * /`` keep their meaning for the screen) until the field loses the focus; a
+        different ``prompt`` is shown meanwhile."""
+        self.text_mode = False
+        if prompt is not None:
+            self.prompt = prompt
+        self.value = ""
+        self.refresh()
+
+    def begin_text(self) -> None:
+        """Go back to the field's own mode and prompt (after ``begin_number``)."""
+        self.text_mode = self._text_default
+        self.prompt = self._prompt_default
+        self.refresh()
 
     def watch_value(self, value: str) -> None:
         self.post_message(self.Changed(self, value))
@@ -105,4 +123,4 @@ class KeypadEntry(Widget, can_focus=True):
         self.refresh()
 
     def on_blur(self) -> None:
-        self.refresh()
+        self.begin_text()

@@ -1,5 +1,8 @@
 """``PickList``: a numbered list a keypad can drive: digits 1–9 pick, 0 turns the page.
 
+A list given an entry with ``type_into`` hands it a typed letter (and, with ``number_prompt``,
+the point key, which starts a numeric entry there: digits and points only).
+
 With NumLock off, ↑/↓ move the highlight, PgUp/PgDn turn pages and Enter picks.
 """
 
@@ -47,15 +50,18 @@ class PickList(Widget, can_focus=True):
         self.columns = columns
         self.title = title
         self.typing_target = None      # a KeypadEntry (text mode) that a typed letter starts
+        self.number_prompt: str | None = None
         self._typing = False
 
-    def type_into(self, entry) -> None:
-        """Let a letter typed here start typing into ``entry`` (a designation field).
+    def type_into(self, entry, number_prompt: str | None = None) -> None:
+        """Let a letter typed here start typing into ``entry`` (a designation field); with
+        ``number_prompt``, the point key starts a numeric entry there under that prompt.
 
         Keys typed ahead after that letter follow it into the entry, in order, even before
         the focus has moved (a paste or a fast typist sends them in one burst).
         """
         self.typing_target = entry
+        self.number_prompt = number_prompt
 
     def on_focus(self) -> None:
         self._typing = False
@@ -143,6 +149,14 @@ class PickList(Widget, can_focus=True):
         key = event.key
         target = self.typing_target
         ch = event.character
+        if (target is not None and self.number_prompt is not None and not self._typing
+                and key in ("full_stop", "decimal")):
+            self._typing = True
+            target.begin_number(self.number_prompt)
+            event.stop()
+            event.prevent_default()
+            self.app.set_focus(target)
+            return
         if target is not None and (self._typing or (ch and (ch.isalpha() or ch == "#"))):
             self._typing = True
             if target.feed(key, ch):
