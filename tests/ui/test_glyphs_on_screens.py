@@ -15,7 +15,8 @@ import importlib
 
 import pytest
 
-from shopterm.standards import parse
+from shopterm.cutting.cut_state import default_draft, prepared_setup
+from shopterm.standards import limits, parse
 from shopterm.ui.screens import REGISTRY
 from shopterm.ui.themes import CONSOLE_CSS, CONSOLE_THEME
 from tests.glyphs import console_glyphs, missing_glyphs
@@ -65,6 +66,12 @@ async def test_every_screen_draws_console_glyphs_only(make_app, name, thread):
     async with app.run_test(size=(80, 24)) as pilot:
         assert app.theme == CONSOLE_THEME
         assert app.thread_chosen(parse(thread))
+        if app.route(name) != name:
+            # a screen of a later stage (the counter, the pick-up): prepare the cut first, on
+            # a blank at the largest major diameter # ISO 965-2 / ASME B1.1 d max via limits()
+            spec = parse(thread)
+            values = {**default_draft(app.shop.tool, {}), "blank_od_mm": limits(spec).major_max}
+            assert app.record_setup(prepared_setup(spec, app.lathe, values)) is not None
         app.goto(name)
         await pilot.pause()
         assert app.current_name == name, f"screen '{name}' did not open"

@@ -76,6 +76,12 @@ class ShopScreen(Screen):
         self.refresh_chrome()
         self.app.screen_shown(self.SCREEN_NAME)
 
+    def route(self) -> str:
+        """Return the screen to show when this one is asked for: its own name, or the screen
+        for the stage the job is at (the pass counter sends a cut not yet prepared to
+        'prepare'). ``app.goto`` follows it; ``+``/``-`` step over a screen that routes away."""
+        return self.SCREEN_NAME
+
     # -- shared actions ----------------------------------------------------------------------
     def action_forward(self) -> None:
         self.app.go_forward(self.SCREEN_NAME)

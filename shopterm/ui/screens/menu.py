@@ -13,8 +13,9 @@ from shopterm.ui.widgets.picklist import PickList
 
 
 #: Screens reached from another screen rather than from the menu (keeps the menu to nine
-#: entries, one digit each): the tool form opens from the pass counter (8).
-NOT_IN_MENU = ("toolform",)
+#: entries, one digit each): the tool form opens from the pass counter (8), the pick-up from
+#: the counter (1); the preparation is where "Pass counter" goes until the cut is prepared.
+NOT_IN_MENU = ("toolform", "prepare", "pickup")
 
 
 class MenuScreen(ModalScreen[str | None]):
