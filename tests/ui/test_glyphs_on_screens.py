@@ -24,6 +24,7 @@ from tests.ui.conftest import screen_lines
 
 #: Threads a screen is shown with: one metric, one inch (their limits print differently).
 THREADS = ("M10x1.5-6g", "1/4-20 UNC-2A")
+INTERNAL = {"M10x1.5-6g": "M10x1.5-6H", "1/4-20 UNC-2A": "1/4-20 UNC-2B"}
 
 
 @pytest.fixture
@@ -72,6 +73,9 @@ async def test_every_screen_draws_console_glyphs_only(make_app, name, thread):
             spec = parse(thread)
             values = {**default_draft(app.shop.tool, {}), "blank_od_mm": limits(spec).major_max}
             assert app.record_setup(prepared_setup(spec, app.lathe, values)) is not None
+        if app.route(name) != name:
+            # a screen for internal threads (the fit check): the nut of the same size
+            assert app.thread_chosen(parse(INTERNAL[thread]))
         app.goto(name)
         await pilot.pause()
         assert app.current_name == name, f"screen '{name}' did not open"

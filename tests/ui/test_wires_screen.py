@@ -449,7 +449,7 @@ async def test_changing_from_internal_to_external_brings_the_entry_back(make_app
     app = mm_app(make_app)
     async with app.run_test(size=(80, 24)) as pilot:
         await open_wires(app, pilot, "M10x1.5-6H")
-        assert not app.screen.query_one("#reading").display
+        assert app.current_name == "fitcheck"       # no reading entry for an internal thread
         app.thread_chosen(parse("M10x1.5-6g"))
         app.screen.job_changed()
         await pilot.pause()

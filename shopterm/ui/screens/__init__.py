@@ -9,6 +9,8 @@ REGISTRY: dict[str, tuple[str, str, str]] = {
     "counter": ("shopterm.ui.screens.counter", "CounterScreen", "Pass counter"),
     "pickup": ("shopterm.ui.screens.pickup", "PickupScreen", "Pick up the thread"),
     "wires": ("shopterm.ui.screens.wires", "WiresScreen", "Wire reading"),
+    "wirechoice": ("shopterm.ui.screens.wirechoice", "WireChoiceScreen", "Choose the wire"),
+    "fitcheck": ("shopterm.ui.screens.fitcheck", "FitCheckScreen", "Fit check"),
     "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
     "identify": ("shopterm.ui.screens.identify", "IdentifyScreen", "What thread is this?"),
     "jobs": ("shopterm.ui.screens.jobs", "JobsScreen", "Jobs and export"),
