@@ -82,6 +82,14 @@ class ShopScreen(Screen):
         'prepare'). ``app.goto`` follows it; ``+``/``-`` step over a screen that routes away."""
         return self.SCREEN_NAME
 
+    def follow_route(self) -> bool:
+        """Go to the screen this one routes to now (after the record changed); True if it went."""
+        other = self.route()
+        if other == self.SCREEN_NAME:
+            return False
+        self.app.goto(other)
+        return True
+
     # -- shared actions ----------------------------------------------------------------------
     def action_forward(self) -> None:
         self.app.go_forward(self.SCREEN_NAME)

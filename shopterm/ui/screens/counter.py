@@ -64,9 +64,7 @@ class CounterScreen(CutScreen):
 
     def job_changed(self) -> None:
         """Called after an undo: the record changed under the screen (it may be unprepared)."""
-        if self.route() != self.SCREEN_NAME:
-            self.app.goto(self.route())
-        else:
+        if not self.follow_route():
             self.redraw()
 
     # -- drawing -----------------------------------------------------------------------------

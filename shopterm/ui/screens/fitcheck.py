@@ -61,9 +61,7 @@ class FitCheckScreen(ShopScreen):
         """The record changed under us (an undo, another thread): ask afresh."""
         self.against = None
         self.say("")
-        if self.route() != self.SCREEN_NAME:
-            self.app.goto(self.route())
-        else:
+        if not self.follow_route():
             self.redraw()
 
     def redraw(self) -> None:

@@ -117,9 +117,7 @@ class WiresScreen(ShopScreen):
     def job_changed(self) -> None:
         """The record changed under us (an undo, another thread): draw it again from it."""
         self.say("")
-        if self.route() != self.SCREEN_NAME:
-            self.app.goto(self.route())
-        else:
+        if not self.follow_route():
             self.redraw()
 
     def route(self) -> str:
