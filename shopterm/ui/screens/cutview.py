@@ -88,8 +88,10 @@ class CutScreen(ShopScreen):
     def on_mount(self) -> None:
         super().on_mount()
         self.redraw()
-        if self._unsaid is not None:
-            self.say(self._unsaid[0], error=self._unsaid[1])
+        if self._unsaid is not None:       # said before the screen was first shown
+            message, error = self._unsaid
+            self._unsaid = None
+            super().say(message, error=error)
 
     def say(self, message: str, *, error: bool = False) -> None:
         """Show a message in ``#message``; said before the screen is first shown, it waits."""
