@@ -184,8 +184,9 @@ class PickupScreen(CutScreen):
         payload = {"reason": self.reason, "radial_cum_mm": self.app.state.radial_cum_mm,
                    "dial": pickup_text(self.readings)}
         event = self.app.record("tool_pickup", payload)
-        self.leave("New dial zeros recorded: the count goes on from here. Take a spring pass "
-                   "(0) before feeding deeper." if event is not None else "")
+        # one line at 80 columns (the message line is one line high)
+        self.leave("New dial zeros recorded. Take a spring pass (0) before feeding deeper."
+                   if event is not None else "")
 
     def action_back(self) -> None:
         self.leave("Pick-up cancelled: nothing recorded.")

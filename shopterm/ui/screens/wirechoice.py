@@ -27,7 +27,7 @@ class WireChoiceScreen(ShopScreen):
     AUTO_FOCUS = "#wire-list"
     DEFAULT_CSS = """
     WireChoiceScreen #choice-head { height: auto; padding: 0 1; }
-    WireChoiceScreen #size-row { height: 1; padding: 0 1; display: none; }
+    WireChoiceScreen #size-row { height: 1; display: none; }
     WireChoiceScreen #message { height: auto; max-height: 3; }
     """
     BINDINGS = [keys.bind(keys.FORWARD, "forward", "readings", show=False)]
