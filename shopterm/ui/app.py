@@ -205,7 +205,8 @@ class ShoptermApp(App):
         return self._screens_by_name[name]
 
     def goto(self, name: str) -> None:
-        """Show the named screen (the current one keeps its state)."""
+        """Show the named screen, or the one it routes to at this stage of the job (the
+        current one keeps its state)."""
         if name == "help":
             self.action_help()
             return
@@ -215,6 +216,7 @@ class ShoptermApp(App):
         if name not in REGISTRY:
             return
         try:
+            name = self.route(name)
             screen = self.screen_for(name)
         except ImportError as exc:  # a screen missing from this build: say so, keep going
             self.log.error(f"screen {name}: {exc!r}")
@@ -227,14 +229,32 @@ class ShoptermApp(App):
             self.switch_screen(screen)
         self.current_name = name
 
+    def route(self, name: str) -> str:
+        """Return the registry screen ``name`` leads to now (its ``route()``, followed once)."""
+        routed = getattr(self.screen_for(name), "route", lambda: name)()
+        return routed if routed in REGISTRY else name
+
+    def _step(self, from_name: str, step: int) -> None:
+        """Go ``step`` (+1/-1) along FLOW from ``from_name``, over screens that route away."""
+        i = FLOW.index(from_name) + step
+        while 0 <= i < len(FLOW):
+            try:
+                here = self.route(FLOW[i]) == FLOW[i]
+            except ImportError:
+                here = True                 # goto says the screen is missing
+            if here:
+                self.goto(FLOW[i])
+                return
+            i += step
+
     def go_forward(self, from_name: str) -> None:
-        if from_name in FLOW and FLOW.index(from_name) + 1 < len(FLOW):
-            self.goto(FLOW[FLOW.index(from_name) + 1])
+        if from_name in FLOW:
+            self._step(from_name, +1)
 
     def go_back(self, from_name: str) -> None:
-        if from_name in FLOW and FLOW.index(from_name) > 0:
-            self.goto(FLOW[FLOW.index(from_name) - 1])
-        elif from_name not in FLOW:
+        if from_name in FLOW:
+            self._step(from_name, -1)
+        else:
             self.goto("counter" if self.spec is not None else "thread")
 
     def screen_shown(self, name: str) -> None:

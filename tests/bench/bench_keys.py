@@ -71,7 +71,7 @@ TARGET = 2.0
 #: reading are all typed this way).
 DEFAULT_PLAN: tuple[str, ...] = ("1", "2", "full_stop", "5", "backspace", "backspace",
                                  "backspace", "backspace")
-DEFAULT_SCREENS = ("counter", "wires")
+DEFAULT_SCREENS = ("prepare", "wires")   # the preparation holds the entry the counter had
 DEMO_THREAD = "M10x1.5-6g"
 
 

@@ -82,6 +82,7 @@ async def test_prepare_then_first_pass_dial_from_published_plan(make_app):
         assert values["passes"] == n and values["spring_passes"] == 1
         text = screen_text(app)
         assert f"Pass 1 of {n}" in text
+        assert f"Set-up recorded: {n} passes" in text   # said by the preparation, shown here
         assert f"COMPOUND dial: set mark {counts[0]}" in text
         assert "Cross-slide back to 0 every pass" in text
         assert "Before the first pass" in text          # cautions still shown before pass 1

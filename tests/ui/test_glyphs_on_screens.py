@@ -16,7 +16,8 @@ import importlib
 
 import pytest
 
-from shopterm.standards import parse
+from shopterm.cutting.cut_state import default_draft, prepared_setup
+from shopterm.standards import limits, parse
 from shopterm.ui.screens import REGISTRY
 from shopterm.ui.themes import CONSOLE_CSS, CONSOLE_THEME
 from tests.glyphs import console_glyphs, missing_glyphs
@@ -24,6 +25,7 @@ from tests.ui.conftest import screen_lines
 
 #: Threads a screen is shown with: one metric, one inch (their limits print differently).
 THREADS = ("M10x1.5-6g", "1/4-20 UNC-2A")
+INTERNAL = {"M10x1.5-6g": "M10x1.5-6H", "1/4-20 UNC-2A": "1/4-20 UNC-2B"}
 
 
 @pytest.fixture
@@ -66,6 +68,15 @@ async def test_every_screen_draws_console_glyphs_only(make_app, name, thread):
     async with app.run_test(size=(80, 24)) as pilot:
         assert app.theme == CONSOLE_THEME
         assert app.thread_chosen(parse(thread))
+        if app.route(name) != name:
+            # a screen of a later stage (the counter, the pick-up): prepare the cut first, on
+            # a blank at the largest major diameter # ISO 965-2 / ASME B1.1 d max via limits()
+            spec = parse(thread)
+            values = {**default_draft(app.shop.tool, {}), "blank_od_mm": limits(spec).major_max}
+            assert app.record_setup(prepared_setup(spec, app.lathe, values)) is not None
+        if app.route(name) != name:
+            # a screen for internal threads (the fit check): the nut of the same size
+            assert app.thread_chosen(parse(INTERNAL[thread]))
         app.goto(name)
         await pilot.pause()
         assert app.current_name == name, f"screen '{name}' did not open"

@@ -30,7 +30,13 @@ GOLDEN = Path(__file__).parent / "golden"
 UPDATE = os.environ.get("SHOPTERM_UPDATE_GOLDEN") == "1"
 SIZES = ((80, 24), (100, 30))
 THEMES = ("shop-bright", CONSOLE_THEME)
-SCREENS = [*REGISTRY, "menu", "help"]
+#: Screens of an earlier stage, shown while the job is set up (once the cut is prepared the
+#: preparation routes to the counter): the OD typed, before Enter confirms it.
+ON_THE_WAY = ("prepare",)
+#: Screens the fixed job (an external thread) never shows: the fit check is for internal
+#: threads (tests/ui/test_wires_screen.py and the console glyph test draw it).
+NOT_THIS_JOB = ("fitcheck",)
+SCREENS = [*(n for n in REGISTRY if n not in ON_THE_WAY + NOT_THIS_JOB), "menu", "help"]
 INCH = 25.4                    # mm in one inch, exact # ISO 31-1 / NIST SP 811
 # ISO 965-2, M10x1.5-6g d2 max / min [mm], and in inches to 0.0001
 # (computed from mm / 25.4)
@@ -73,8 +79,10 @@ def text_of(app) -> str:
     return "\n".join(screen_lines(app))
 
 
-async def fixed_job(app, pilot) -> None:
-    """Set up the one job every snapshot shows, by keypad keys where a screen takes them."""
+async def fixed_job(app, pilot, on_the_way=None) -> None:
+    """Set up the one job every snapshot shows, by keypad keys where a screen takes them.
+
+    ``on_the_way(name)`` is awaited where a screen of an earlier stage shows (ON_THE_WAY)."""
     await until(pilot, app, lambda: "Thread family" in text_of(app), "the thread screen")
     await pilot.press("tab", *"M10x1.5-6g", "ctrl+j")
     await until(pilot, app, lambda: "pitch diameter" in text_of(app), "the limits")
@@ -93,6 +101,8 @@ async def fixed_job(app, pilot) -> None:
     await until(pilot, app, lambda: "Prepare M10x1.5-6g" in text_of(app), "the counter")
     await pilot.press(*OD_TYPED, "ctrl+j")
     await until(pilot, app, lambda: "Measured" in text_of(app), "the OD taken")
+    if on_the_way is not None:
+        await on_the_way("prepare")
     await pilot.press("ctrl+j")
     await until(pilot, app, lambda: "Pass 1 of" in text_of(app), "pass 1")
     await pilot.press("ctrl+j")
@@ -199,9 +209,10 @@ async def test_every_screen_fits_and_matches_its_golden_text(sample_config, make
     changed: list[str] = []
     async with app.run_test(size=size) as pilot:
         assert app.theme == theme
-        await fixed_job(app, pilot)
-        for name in SCREENS:
-            await show(app, pilot, name)
+
+        async def snapshot(name: str) -> None:
+            app.clear_notifications()
+            await pilot.pause()
             lines = screen_lines(app)
             print(f"---- {name} {width}x{height} {theme}")
             print("\n".join(lines))
@@ -217,6 +228,11 @@ async def test_every_screen_fits_and_matches_its_golden_text(sample_config, make
                 changed.append(f"{golden.name} missing: run with SHOPTERM_UPDATE_GOLDEN=1")
             elif got != golden.read_text(encoding="utf-8"):
                 changed.append(f"{golden.name} differs")
+
+        await fixed_job(app, pilot, snapshot)
+        for name in SCREENS:
+            await show(app, pilot, name)
+            await snapshot(name)
             if name in ("menu", "help"):
                 await pilot.press("minus")                  # close it
                 await pilot.pause()

@@ -34,7 +34,8 @@ async def test_profiles_and_root_rule_then_change_tip(make_app):
         assert "0.203 mm" in text and "verdict: OK" in text
         assert app.setup_values()["tool_size_mm"] == pytest.approx(0.008 * 25.4)
         await pilot.press("minus")
-        assert app.current_name == "counter"
+        # back to the cut: nothing is prepared yet, so the counter sends it to the preparation
+        assert app.current_name == "prepare"
 
 
 async def test_bad_size_kept_and_flat_toggle(make_app):

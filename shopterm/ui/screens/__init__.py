@@ -5,12 +5,18 @@ REGISTRY: dict[str, tuple[str, str, str]] = {
     "thread": ("shopterm.ui.screens.thread", "ThreadScreen", "Thread"),
     "setup": ("shopterm.ui.screens.setup", "SetupScreen", "Lathe set-up"),
     "checklist": ("shopterm.ui.screens.checklist", "ChecklistScreen", "Checklist"),
+    "prepare": ("shopterm.ui.screens.prepare", "PrepareScreen", "Prepare the cut"),
     "counter": ("shopterm.ui.screens.counter", "CounterScreen", "Pass counter"),
+    "pickup": ("shopterm.ui.screens.pickup", "PickupScreen", "Pick up the thread"),
     "wires": ("shopterm.ui.screens.wires", "WiresScreen", "Wire reading"),
+    "wirechoice": ("shopterm.ui.screens.wirechoice", "WireChoiceScreen", "Choose the wire"),
+    "fitcheck": ("shopterm.ui.screens.fitcheck", "FitCheckScreen", "Fit check"),
     "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
     "identify": ("shopterm.ui.screens.identify", "IdentifyScreen", "What thread is this?"),
     "jobs": ("shopterm.ui.screens.jobs", "JobsScreen", "Jobs and export"),
 }
 
-#: The order a job goes through; ``+`` moves along it.
-FLOW: tuple[str, ...] = ("thread", "setup", "checklist", "counter", "wires")
+#: The order a job goes through; ``+`` and ``-`` move along it, stepping over a screen that
+#: sends the user elsewhere at this stage of the job (its ``route()``: 'prepare' once the cut is
+#: prepared, 'counter' before).
+FLOW: tuple[str, ...] = ("thread", "setup", "checklist", "prepare", "counter", "wires")

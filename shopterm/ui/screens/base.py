@@ -76,6 +76,20 @@ class ShopScreen(Screen):
         self.refresh_chrome()
         self.app.screen_shown(self.SCREEN_NAME)
 
+    def route(self) -> str:
+        """Return the screen to show when this one is asked for: its own name, or the screen
+        for the stage the job is at (the pass counter sends a cut not yet prepared to
+        'prepare'). ``app.goto`` follows it; ``+``/``-`` step over a screen that routes away."""
+        return self.SCREEN_NAME
+
+    def follow_route(self) -> bool:
+        """Go to the screen this one routes to now (after the record changed); True if it went."""
+        other = self.route()
+        if other == self.SCREEN_NAME:
+            return False
+        self.app.goto(other)
+        return True
+
     # -- shared actions ----------------------------------------------------------------------
     def action_forward(self) -> None:
         self.app.go_forward(self.SCREEN_NAME)

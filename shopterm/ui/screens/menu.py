@@ -13,8 +13,11 @@ from shopterm.ui.widgets.picklist import PickList
 
 
 #: Screens reached from another screen rather than from the menu (keeps the menu to nine
-#: entries, one digit each): the tool form opens from the pass counter (8).
-NOT_IN_MENU = ("toolform",)
+#: entries, one digit each): the tool form opens from the pass counter (8), the pick-up from
+#: the counter (1), the wire choice from the wire screen (Enter on an empty entry); the
+#: preparation is where "Pass counter" goes until the cut is prepared, the fit check where
+#: "Wire reading" goes for an internal thread.
+NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck")
 
 
 class MenuScreen(ModalScreen[str | None]):

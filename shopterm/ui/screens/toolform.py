@@ -17,7 +17,8 @@ from shopterm.lathe.machine import ToolTip
 from shopterm.standards import limits as thread_limits
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
-from shopterm.ui.screens.counter import LengthEntry, set_tool, tool_in_use, wrap_lines
+from shopterm.ui.screens.cutview import LengthEntry, wrap_lines
+from shopterm.ui.screens.prepare import set_tool, tool_in_use
 from shopterm.ui.widgets.entry import KeypadEntry
 from shopterm.units import format_length, parse_length
 

@@ -8,13 +8,15 @@ screen shows their mean and spread and acts on the mean. What it shows is always
 record (``app.state``), never from a count of its own; the core (``shopterm.cutting.remaining``)
 computes every dimension.
 
-Internal threads cannot be measured over wires on most work: the screen says so and offers to
-record a fit check against the mating part or a plug gauge, as a ``note``.
+Another wire is chosen on the wire choice screen (``wirechoice``: Enter on an empty entry).
+Internal threads cannot be measured over wires on most work: this screen routes them to the fit
+check (``fitcheck``). Which readings make a set is ``cutting.reading_sets``; the band picture and
+the chart are ``wireview``.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from dataclasses import replace
 
 from rich.text import Text
 from textual import events, on
@@ -22,143 +24,17 @@ from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.widgets import Digits, Static
 
+from shopterm.cutting.reading_sets import ReadingSet, current_set, cuts, reading_sets
 from shopterm.errors import InvalidEntry, ShoptermError
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
+from shopterm.ui.screens.wireview import CHART_ROWS, band_picture, chart_rows, fmt, wire_in_use
 from shopterm.ui.widgets.entry import KeypadEntry
-from shopterm.ui.widgets.picklist import PickList
+
+__all__ = ["WiresScreen", "ReadingSet", "reading_sets", "band_picture", "chart_rows"]
 
 #: Characters a keyboard may add after a number to give its unit (``10.2mm``, ``.402in``, ``.4"``).
 UNIT_CHARS = set("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ\" ")
-#: Width of the band picture and of the chart bars [characters].
-PICTURE_WIDTH = 44
-#: How many sets of readings the chart shows (the latest ones).
-CHART_ROWS = 4
-#: Note text that marks a fit check in the record.
-FIT_PREFIX = "Fit check"
-
-
-# ---- reading sets: which readings belong together (no dimension computed here) -------------
-
-@dataclass(frozen=True)
-class ReadingSet:
-    """Readings taken after the same cut with the same wire."""
-
-    after_seq: int          # seq of the pass / spring pass / pick-up before them (0: none)
-    label: str              # "start", "pass 3", "spring", "pick-up"
-    wire_mm: float | None   # [mm]
-    readings: tuple         # shopterm.job.state.Reading, oldest first
-
-
-def cuts(state) -> list[tuple[int, str]]:
-    """Return (seq, label) of every cut in force (passes, spring passes, pick-ups), oldest first."""
-    out = [(p.seq, f"pass {p.n}") for p in state.passes]
-    out += [(s.seq, "spring") for s in state.spring_passes]
-    out += [(k.seq, "pick-up") for k in state.pickups]
-    return sorted(out)
-
-
-def same_wire(a: float | None, b: float | None) -> bool:
-    """Return whether two wire sizes [mm] are the same set (to a tenth of a micrometre)."""
-    if a is None or b is None:
-        return a is b
-    return abs(a - b) < 1e-4
-
-
-def reading_sets(state) -> list[ReadingSet]:
-    """Return the readings in force grouped into sets (same cut, same wire), oldest first."""
-    if state is None:
-        return []
-    marks = cuts(state)
-    sets: list[ReadingSet] = []
-    for r in state.readings:
-        before = [m for m in marks if m[0] < r.seq]
-        seq, label = before[-1] if before else (0, "start")
-        if sets and sets[-1].after_seq == seq and same_wire(sets[-1].wire_mm, r.wire_mm):
-            sets[-1] = replace(sets[-1], readings=sets[-1].readings + (r,))
-        else:
-            sets.append(ReadingSet(seq, label, r.wire_mm, (r,)))
-    return sets
-
-
-def current_set(state, wire_mm: float) -> ReadingSet | None:
-    """Return the set a new reading joins: the last one, if nothing was cut since and the wire is the same."""
-    sets = reading_sets(state)
-    if not sets:
-        return None
-    marks = cuts(state)
-    last_cut = marks[-1][0] if marks else 0
-    last = sets[-1]
-    if last.after_seq == last_cut and same_wire(last.wire_mm, wire_mm):
-        return last
-    return None
-
-
-# ---- pictures (positions on a line of characters, from values the core gave) -----------------
-
-def _column(value: float, left: float, right: float, width: int) -> int:
-    """Return the column of ``value`` on a scale from ``left`` (column 0) to ``right``."""
-    if right == left:
-        return width // 2
-    col = round((value - left) / (right - left) * (width - 1))
-    return min(max(col, 0), width - 1)
-
-
-def band_picture(pd: float, pd_max: float, pd_min: float, width: int = PICTURE_WIDTH) -> str:
-    """Return one line showing where ``pd`` sits against the band (big on the left).
-
-    ``[`` is the top of the band (PD max), ``]`` its bottom (PD min), ``█`` the reading;
-    ``<`` or ``>`` at an end means the reading is off the scale that way.
-    """
-    span = max(pd_max - pd_min, 1e-6)
-    left, right = pd_max + 2 * span, pd_min - span
-    cells = ["·"] * width
-    b0, b1 = _column(pd_max, left, right, width), _column(pd_min, left, right, width)
-    for i in range(b0 + 1, b1):
-        cells[i] = "░"
-    cells[b0], cells[b1] = "[", "]"
-    col = _column(pd, left, right, width)
-    off = pd > left or pd < right
-    cells[col] = ("<" if pd > left else ">") if off else "█"
-    return "big " + "".join(cells) + " small"
-
-
-def chart_rows(sets: list, pd_max: float, pd_min: float, unit: str,
-               width: int = PICTURE_WIDTH - 6) -> list[str]:
-    """Return the chart lines: one row per reading set; ``█`` moves right as the PD falls.
-
-    ``·`` runs from the reading to the top of the band (what was still to come off), ``│░│``
-    is the band.
-
-    sets: (label, pd [mm], count of readings) oldest first.
-    """
-    from shopterm.units import format_length
-    if not sets:
-        return []
-    span = max(pd_max - pd_min, 1e-6)
-    left = max(max(pd for _, pd, _ in sets), pd_max + span)
-    right = min(min(pd for _, pd, _ in sets), pd_min - span / 2)
-    b0, b1 = _column(pd_max, left, right, width), _column(pd_min, left, right, width)
-    res = 0.0001 if unit == "in" else 0.001
-    out = []
-    for label, pd, n in sets:
-        col = _column(pd, left, right, width)
-        cells = []
-        for i in range(width):
-            if i == col:
-                cells.append("█")
-            elif i in (b0, b1):
-                cells.append("│")
-            elif b0 < i < b1:
-                cells.append("░")
-            elif col < i < b0:
-                cells.append("·")   # still to come off
-            else:
-                cells.append(" ")
-        count = f"×{n}" if n > 1 else "  "
-        out.append(f"{label:<8}{format_length(pd, unit, res, suffix=False):>9} {count:<3}"
-                   + "".join(cells))
-    return out
 
 
 # ---- the screen -----------------------------------------------------------------------------
@@ -171,8 +47,6 @@ class WiresScreen(ShopScreen):
     WiresScreen #above { height: auto; }
     WiresScreen #below { height: auto; }
     WiresScreen #wires-head { height: auto; max-height: 4; padding: 0 1; }
-    WiresScreen #wire-list { display: none; }
-    WiresScreen #fit-list { display: none; }
     WiresScreen #reading { margin: 0 0; }
     WiresScreen #set-line { height: 1; padding: 0 1; }
     WiresScreen #feed { height: 3; }
@@ -192,14 +66,11 @@ class WiresScreen(ShopScreen):
     BINDINGS = [keys.bind(keys.FORWARD, "forward", "counter", show=False)]
     HELP = (("0-9 .", "type a reading over the wires (a unit may follow: mm, in)"),
             ("Enter", "take the reading typed; on an empty entry: choose another wire"),
-            ("1-9", "in the wire list: pick a wire set, or type a measured size"),
             ("/", "undo the last entry (asks first)"),
             ("- or +", "back to the pass counter"))
 
     def __init__(self) -> None:
         super().__init__()
-        self.mode = "reading"      # reading | wire_pick | wire_size | fit | fit_outcome
-        self.fit_against: str | None = None
         self.draft = ""            # the entry's text not yet confirmed (kept over a re-compose)
 
     def compose_body(self) -> ComposeResult:
@@ -208,8 +79,6 @@ class WiresScreen(ShopScreen):
         # screen (the compositor redraws each widget whose container overlaps the change).
         with Vertical(id="above"):
             yield Static("", id="wires-head")
-            yield PickList(id="wire-list", columns=2)
-            yield PickList(id="fit-list", columns=1)
         yield KeypadEntry(prompt="Reading over wires: ", id="reading")
         with Vertical(id="below"):
             yield Static("", id="message", classes="message")
@@ -229,8 +98,6 @@ class WiresScreen(ShopScreen):
         super().on_mount()
         # The app may have taken this screen down while another was shown (it is composed
         # again then): bring back what was typed and not yet confirmed.
-        if self.mode == "wire_pick":
-            self.mode = "reading"
         self.query_one("#reading", KeypadEntry).value = self.draft
         self.redraw()
 
@@ -248,22 +115,22 @@ class WiresScreen(ShopScreen):
         self.redraw()
 
     def job_changed(self) -> None:
-        """The record changed under us (an undo): draw everything again from it."""
+        """The record changed under us (an undo, another thread): draw it again from it."""
         self.say("")
-        self.redraw()
+        if not self.follow_route():
+            self.redraw()
+
+    def route(self) -> str:
+        spec = self.app.spec
+        return "fitcheck" if spec is not None and not spec.is_external else self.SCREEN_NAME
 
     # -- what the screen works from ----------------------------------------------------------
     @property
     def unit(self) -> str:
         return self.app.shop.display_units
 
-    @property
-    def res(self) -> float:
-        return 0.0001 if self.unit == "in" else 0.001
-
     def fmt(self, mm: float, suffix: bool = True) -> str:
-        from shopterm.units import format_length
-        return format_length(mm, self.unit, self.res, suffix=suffix)
+        return fmt(self.app, mm, suffix)
 
     def limits(self):
         """Return the thread's limits; a thread with no class is measured to its basic PD."""
@@ -275,38 +142,7 @@ class WiresScreen(ShopScreen):
 
     def wire(self) -> tuple[float, str, str]:
         """Return (wire [mm], its description, a problem to show or '')."""
-        from shopterm.cutting.wires import check_wire, choose_wire
-        spec = self.app.spec
-        owned = self.app.shop.wires
-        chosen = self.app.setup_values().get("wire_mm")
-        if chosen:
-            label = self.wire_label(float(chosen))
-            chk = check_wire(spec.form, spec.pitch, float(chosen), owned, self.unit)
-            if chk.ok:
-                return float(chosen), label, ""
-            problem = chk.message
-        else:
-            problem = ""
-        choice = choose_wire(spec.form, spec.pitch, owned, self.unit)
-        if choice.owned is not None:
-            return choice.size, self.wire_label(choice.size), problem
-        return choice.size, f"{self.fmt(choice.size)} (best size, not in your sets)", \
-            problem or choice.note
-
-    def wire_label(self, size: float) -> str:
-        from shopterm.units import parse_length
-        for w in self.app.shop.wires:
-            if same_wire(w.size, size):
-                extra = w.label
-                try:   # a label that only repeats the size says nothing in this unit
-                    if same_wire(parse_length(extra, self.unit), size):
-                        extra = ""
-                except ShoptermError:
-                    pass
-                if w.measured is not None and not extra:
-                    extra = f"marked {self.fmt(w.marked)}"
-                return self.fmt(size) + (f" ({extra})" if extra else "")
-        return f"{self.fmt(size)} (measured size)"
+        return wire_in_use(self.app)
 
     def feed_slide(self) -> tuple[str, float | None]:
         """Return (the slide the user feeds with, compound angle from the set-up or None)."""
@@ -341,17 +177,14 @@ class WiresScreen(ShopScreen):
             self.show_parts(entry=False, feed=False)
             return
         if not spec.is_external:
-            self.draw_internal()
-            return
+            return                         # routed to the fit check (job_changed, goto)
         try:
             self.draw_external()
         except ShoptermError as exc:
             self.say(str(exc), error=True)
 
     def show_parts(self, *, entry: bool, feed: bool) -> None:
-        self.query_one("#reading").display = entry and self.mode in ("reading", "wire_size")
-        self.query_one("#wire-list").display = self.mode == "wire_pick"
-        self.query_one("#fit-list").display = self.mode in ("fit", "fit_outcome")
+        self.query_one("#reading").display = entry
         for sel in ("#feed", "#feed-how", "#state-line", "#detail", "#picture", "#chart", "#set-line"):
             self.query_one(sel).display = feed
         self.refresh_chrome()
@@ -359,8 +192,6 @@ class WiresScreen(ShopScreen):
     def draw_external(self) -> None:
         from shopterm.cutting.wires import MEASURE_CAUTION, band_over_wires
         spec, state = self.app.spec, self.app.state
-        if self.mode in ("fit", "fit_outcome"):   # the thread was changed from an internal one
-            self.mode = "reading"
         lim = self.limits()
         wire, wire_text, problem = self.wire()
         band = band_over_wires(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min, wire)
@@ -374,15 +205,12 @@ class WiresScreen(ShopScreen):
                     f"(PD min {self.fmt(lim.pd_min, False)}) {u}, {cls}")
         self.query_one("#wires-head", Static).update(head)
         entry = self.query_one("#reading", KeypadEntry)
-        entry.prompt = (f"Wire size as measured [{u}]: " if self.mode == "wire_size"
-                        else f"Reading over wires [{u}]: ")
+        entry.prompt = f"Reading over wires [{u}]: "
         entry.refresh()
-        if problem and self.mode == "reading":
+        if problem:
             self.say(problem, error=True)
         self.query_one("#caution", Static).update(MEASURE_CAUTION)
-        self.show_parts(entry=True, feed=self.mode != "wire_pick")
-        if self.mode == "wire_pick":
-            return
+        self.show_parts(entry=True, feed=True)
         current = current_set(state, wire)
         if current is None:
             self.draw_history(lim, CHART_ROWS)
@@ -503,114 +331,6 @@ class WiresScreen(ShopScreen):
         chart.update(Text("\n").join([title] + [Text(x) for x in lines]))
         chart.display = True
 
-    # -- internal threads ---------------------------------------------------------------------
-    def draw_internal(self) -> None:
-        from shopterm.cutting.remaining import FIT_CHECKS, FIT_OUTCOMES, fit_check_offer
-        spec = self.app.spec
-        offer = fit_check_offer(spec)
-        head = Text(spec.designation, style="bold")
-        head.append("\n" + offer.message)
-        self.query_one("#wires-head", Static).update(head)
-        if self.mode not in ("fit", "fit_outcome"):
-            self.mode = "fit"
-        picks = self.query_one("#fit-list", PickList)
-        if self.mode == "fit":
-            picks.set_items([(label, key) for key, label in FIT_CHECKS],
-                            "Record a fit check against:")
-        else:
-            outcomes = FIT_OUTCOMES[self.fit_against]
-            picks.set_items([(msg.split(":")[0], key) for key, (_, msg) in outcomes.items()],
-                            "What happened?")
-        self.show_parts(entry=False, feed=False)
-        picks.focus()
-        self.query_one("#caution", Static).update(
-            "Stop the spindle before trying a gauge or the mating part; keep the chuck key "
-            "out and hands clear of the chuck. Follow your shop's rules and the maker's.")
-        notes = [n for n in (self.app.state.notes if self.app.state else ())
-                 if n.text.startswith(FIT_PREFIX)]
-        chart = self.query_one("#chart", Static)
-        if notes:
-            chart.update(Text("\n").join([Text("fit checks so far", style="bold")]
-                                         + [Text(n.text) for n in notes[-CHART_ROWS:]]))
-            chart.display = True
-
-    @on(PickList.Picked, "#fit-list")
-    def fit_picked(self, event: PickList.Picked) -> None:
-        from shopterm.cutting.remaining import FIT_CHECKS, record_fit_check
-        if self.mode == "fit":
-            self.fit_against = event.value
-            self.mode = "fit_outcome"
-            self.redraw()
-            return
-        try:
-            check = record_fit_check(self.fit_against, event.value)
-        except ShoptermError as exc:
-            self.say(str(exc), error=True)
-            return
-        against = dict(FIT_CHECKS)[check.against].removeprefix("Try ")
-        text = f"{FIT_PREFIX} against {against}: {check.message}"
-        if self.app.record("note", {"text": text}) is None:
-            self.say("The fit check was not recorded (see the message above); pick it again.",
-                     error=True)
-            return
-        self.mode = "fit"
-        self.redraw()
-        self.say(check.message, error=check.state == "past")
-
-    # -- wire choice -----------------------------------------------------------------------------
-    def wire_items(self) -> list[tuple[str, object]]:
-        from shopterm.cutting.wires import wire_range
-        spec = self.app.spec
-        rng = wire_range(spec.form, spec.pitch)
-        owned = sorted((w for w in self.app.shop.wires if rng.fits(w.size)),
-                       key=lambda w: abs(w.size - rng.best))
-        items: list[tuple[str, object]] = [(self.wire_label(w.size), w.size) for w in owned]
-        if not owned:
-            items.append((f"best size {self.fmt(rng.best)}", rng.best))
-        items.append(("type a measured size", "type"))
-        return items
-
-    def open_wire_list(self) -> None:
-        from shopterm.cutting.wires import wire_range
-        spec = self.app.spec
-        rng = wire_range(spec.form, spec.pitch)
-        self.mode = "wire_pick"
-        picks = self.query_one("#wire-list", PickList)
-        picks.set_items(self.wire_items()[:9],
-                        f"Wire sets that fit (best {self.fmt(rng.best)}, "
-                        f"{self.fmt(rng.smallest, False)}–{self.fmt(rng.largest)})")
-        self.redraw()
-        picks.focus()
-
-    @on(PickList.Picked, "#wire-list")
-    def wire_picked(self, event: PickList.Picked) -> None:
-        if event.value == "type":
-            self.mode = "wire_size"
-            self.query_one("#reading", KeypadEntry).clear()
-            self.redraw()
-            self.query_one("#reading").focus()
-            self.say("Type the wire diameter as your micrometer reads it, then Enter.")
-            return
-        self.use_wire(float(event.value))
-
-    def use_wire(self, size: float) -> bool:
-        from shopterm.cutting.wires import require_wire
-        spec = self.app.spec
-        try:
-            require_wire(spec.form, spec.pitch, size, self.app.shop.wires, self.unit)
-        except ShoptermError as exc:
-            self.say(str(exc), error=True)
-            return False
-        if self.app.record_setup({"wire_mm": size}) is None:
-            self.say("The wire was not changed (see the message above).", error=True)
-            return False
-        self.mode = "reading"
-        self.query_one("#reading", KeypadEntry).clear()
-        self.redraw()
-        self.query_one("#reading").focus()
-        self.say(f"Wire {self.wire_label(size)} recorded in the set-up.")
-        return True
-
     # -- readings ------------------------------------------------------------------------------
     def on_key(self, event: events.Key) -> None:
         """A unit typed after the number (keyboard only) goes into the entry."""
@@ -627,26 +347,10 @@ class WiresScreen(ShopScreen):
         text = event.value.strip()
         if self.app.spec is None or not self.app.spec.is_external:
             return
-        if self.mode == "wire_size":
-            self.wire_size_typed(text)
-            return
         if not text:
-            self.open_wire_list()
+            self.app.goto("wirechoice")
             return
         self.reading_typed(text)
-
-    def wire_size_typed(self, text: str) -> None:
-        from shopterm.units import parse_positive_length
-        if not text:
-            self.mode = "reading"
-            self.redraw()
-            return
-        try:
-            size = parse_positive_length(text, self.unit, "wire diameter")
-        except ShoptermError as exc:
-            self.say(str(exc), error=True)
-            return
-        self.use_wire(size)
 
     def reading_typed(self, text: str) -> None:
         from shopterm.cutting.wires import ReadingSlip, check_reading
@@ -726,25 +430,10 @@ class WiresScreen(ShopScreen):
 
     # -- keys ----------------------------------------------------------------------------------
     def key_hints(self) -> list[tuple[str, str]]:
-        if self.mode == "wire_pick":
-            return [("1-9", "pick wire"), ("-", "cancel"), ("/", "undo"), ("*", "menu"),
-                    ("F1", "help")]
-        if self.mode == "wire_size":
-            return [("Enter", "use this wire"), ("-", "cancel"), ("*", "menu"), ("F1", "help")]
-        if self.mode in ("fit", "fit_outcome"):
-            return [("1-9", "pick"), ("-", "back" if self.mode == "fit_outcome" else "counter"),
-                    ("/", "undo"), ("*", "menu"), ("F1", "help")]
         return [("Enter", "take reading · empty: wire"), ("/", "undo"), ("-", "counter"),
                 ("*", "menu"), ("F1", "help")]
 
     def action_back(self) -> None:
-        if self.mode in ("wire_pick", "wire_size", "fit_outcome"):
-            self.mode = "fit" if self.mode == "fit_outcome" else "reading"
-            self.say("")
-            self.redraw()
-            if self.mode == "reading":
-                self.query_one("#reading").focus()
-            return
         self.app.goto("counter")
 
     def action_forward(self) -> None:
