@@ -50,8 +50,7 @@ class KeypadEntry(Widget, can_focus=True):
         self.prompt = prompt
         self.placeholder = placeholder
         self.text_mode = text
-        self._text_default = text
-        self._prompt_default = prompt
+        self._saved: tuple[bool, str] | None = None   # mode and prompt before begin_number
         self.max_length = max_length
         self.set_reactive(KeypadEntry.value, value)
 
@@ -72,6 +71,7 @@ class KeypadEntry(Widget, can_focus=True):
         """Start an empty numeric entry in a text-mode field (digits and points only, so
         ``+ - * /`` keep their meaning for the screen) until the field loses the focus; a
         different ``prompt`` is shown meanwhile."""
+        self._saved = (self.text_mode, self.prompt)
         self.text_mode = False
         if prompt is not None:
             self.prompt = prompt
@@ -79,9 +79,12 @@ class KeypadEntry(Widget, can_focus=True):
         self.refresh()
 
     def begin_text(self) -> None:
-        """Go back to the field's own mode and prompt (after ``begin_number``)."""
-        self.text_mode = self._text_default
-        self.prompt = self._prompt_default
+        """Go back to the field's mode and prompt from before ``begin_number`` (nothing to do
+        when it was not called: a screen may have changed the prompt since)."""
+        if self._saved is None:
+            return
+        self.text_mode, self.prompt = self._saved
+        self._saved = None
         self.refresh()
 
     def watch_value(self, value: str) -> None:
