@@ -31,7 +31,8 @@ from shopterm.errors import InvalidEntry, UnknownThread
 if TYPE_CHECKING:
     from shopterm.standards.spec import Limits, ThreadSpec
 
-__all__ = ["parse", "limits", "catalogue", "format_designation", "classes", "family_module",
+__all__ = ["parse", "limits", "catalogue", "format_designation", "classes", "cautions",
+           "family_module",
            "ThreadSpec", "Limits", "FAMILIES"]
 
 #: Family keys in the order they are asked to parse, with the module that implements each.
@@ -40,6 +41,7 @@ FAMILIES: dict[str, str] = {
     "unified": "shopterm.standards.unified",
     "whitworth": "shopterm.standards.whitworth",
     "ba": "shopterm.standards.ba",
+    "pipe": "shopterm.standards.pipe",
     "special": "shopterm.standards.special",
 }
 
@@ -48,6 +50,7 @@ FAMILY_TITLES: dict[str, str] = {
     "unified": "Unified inch",
     "whitworth": "Whitworth form (BSW, BSF, ME)",
     "ba": "BA",
+    "pipe": "Pipe threads (G, R, NPT)",
     "special": "Special",
 }
 
@@ -83,7 +86,7 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
     """
     if not isinstance(text, str) or not text.strip():
         raise InvalidEntry("Type a thread designation such as M10x1.5-6g, 1/4-20 UNC-2A, "
-                           "3/8 BSW, 2BA or 1/4x40 ME.")
+                           "3/8 BSW, 2BA, 1/4x40 ME, G1/2A, R1/2 or 1/2-14 NPT.")
     s = " ".join(text.strip().split())
     hand = "RH"
     for _ in range(2):
@@ -101,16 +104,22 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
         if spec is None:
             continue
         if kind is not None and spec.kind != kind:
-            if spec.tol_class is not None and family in ("iso", "unified"):
-                raise InvalidEntry(
-                    f"Class {spec.tol_class} is for an {spec.kind} thread, not {kind}: "
-                    + ("use a lower-case letter (6g) for external, capital (6H) for internal."
-                       if family == "iso" else "use A for external, B for internal."))
+            if spec.tol_class is not None and family in _CLASS_SAYS_KIND:
+                raise InvalidEntry(f"Class {spec.tol_class} is for an {spec.kind} thread, not "
+                                   f"{kind}: {_CLASS_SAYS_KIND[family]}")
             spec = spec.with_(kind=kind)
             _check_class(spec)
         return spec.with_(hand=hand) if hand != spec.hand else spec
     raise UnknownThread(f"{text.strip()!r} is not a thread designation shopterm knows.",
                         suggest(s))
+
+
+#: Families whose class letter says the kind, and how to write the other kind.
+_CLASS_SAYS_KIND = {
+    "iso": "use a lower-case letter (6g) for external, capital (6H) for internal.",
+    "unified": "use A for external, B for internal.",
+    "pipe": "ISO 228-1 classes A and B are external; write an internal G with no letter (G1/2).",
+}
 
 
 def _check_class(spec: ThreadSpec) -> None:
@@ -136,6 +145,14 @@ def format_designation(spec: ThreadSpec) -> str:
 def classes(spec: ThreadSpec) -> list[str]:
     """Return the classes the standard gives for this thread's size and kind."""
     return family_module(spec.family).classes(spec)
+
+
+def cautions(spec: ThreadSpec) -> tuple[str, ...]:
+    """Return the cautions to show with this thread (a family may have none).
+
+    Pipe threads: a pressure fitting's fitness for service is not settled by its dimensions.
+    """
+    return tuple(getattr(family_module(spec.family), "cautions", lambda s: ())(spec))
 
 
 @lru_cache(maxsize=1)

@@ -30,6 +30,7 @@ GROUPS: tuple[Group, ...] = (
     Group("whitworth", "Whitworth (BSW, BSF)", ("whitworth",), ("BSW", "BSF")),
     Group("ba", "BA", ("ba",)),
     Group("me", "Model engineer (32/40 tpi)", ("whitworth",), ("ME",)),
+    Group("pipe", "Pipe threads: G, R, NPT", ("pipe",)),
     Group("special", "Special thread", ("special",)),
 )
 

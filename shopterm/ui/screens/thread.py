@@ -13,7 +13,7 @@ from textual.widgets import Static
 from shopterm.errors import ShoptermError
 from typing import TYPE_CHECKING
 
-from shopterm.standards import classes, limits, parse, walk
+from shopterm.standards import cautions, classes, limits, parse, walk
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.widgets.entry import KeypadEntry
@@ -25,6 +25,7 @@ if TYPE_CHECKING:
 
 STARTS_CYCLE = (1, 2, 3, 4, 5, 6, 8)
 NO_CLASS = "basic size"
+ONE_CLASS = "the standard's tolerance"   # a pipe thread with no class to choose
 
 
 @dataclass
@@ -106,6 +107,8 @@ def thread_summary(spec: ThreadSpec, display_unit: str) -> Text:
                + f" · lead angle {lim.lead_angle_deg:.2f}°")
     for note in lim.notes[:2]:
         out.append(f"\nnote: {note}", style="dim")
+    for caution in cautions(spec):
+        out.append(f"\ncaution: {caution}", style="bold")
     return out
 
 
@@ -183,7 +186,9 @@ class ThreadScreen(ShopScreen):
                                     ("choose again", "again")])
         if w.group is None:
             items = [(g.title, ("group", g.key)) for g in walk.GROUPS]
-            items += [(f"recent {d}", ("recent", d)) for d in self.app_recent()[:3]]
+            # nine entries in all, each picked by one digit
+            items += [(f"recent {d}", ("recent", d))
+                      for d in self.app_recent()[:max(0, 9 - len(walk.GROUPS))]]
             return "Thread family (or type a designation)", items
         if w.group == "special":
             return self.special_choices()
@@ -202,7 +207,7 @@ class ThreadScreen(ShopScreen):
             cls = classes(spec)
             items = [(c, ("cls", c)) for c in cls]
             if not cls or w.base.family in ("whitworth", "ba"):
-                items.append((NO_CLASS, ("cls", None)))
+                items.append((ONE_CLASS if w.base.family == "pipe" else NO_CLASS, ("cls", None)))
             return "Class of fit", items
         return "", []
 
@@ -258,7 +263,7 @@ class ThreadScreen(ShopScreen):
         if w.kind:
             parts.append(w.kind)
         if w.cls not in ("unset",):
-            parts.append(w.cls or NO_CLASS)
+            parts.append(w.cls or (ONE_CLASS if w.base and w.base.family == "pipe" else NO_CLASS))
         return Text(" › ".join(parts), style="dim") if parts else Text("")
 
     def show_result(self) -> None:
