@@ -352,8 +352,11 @@ def npt_inches(size: str) -> dict[str, float]:
     """
     d_text, tpi_text, l1_text, l3_text = NPT[size]
     d, p, l1 = Fraction(d_text), 1 / Fraction(tpi_text), Fraction(l1_text)
-    e0 = Fraction(_quantize(d - (Fraction("0.05") * d + Fraction("1.1")) * p, 5))
-    e1 = Fraction(_quantize(e0 + Fraction("0.0625") * l1, 5))
+    # E1 from the unrounded E0: 4 NPT E0 4.334375 + 0.05275 = 4.387125, printed 4.38712
+    # (from memory); from the printed E0 4.33438 it would be 4.38713.
+    e0_exact = d - (Fraction("0.05") * d + Fraction("1.1")) * p
+    e0 = Fraction(_quantize(e0_exact, 5))
+    e1 = Fraction(_quantize(e0_exact + Fraction("0.0625") * l1, 5))
     l2 = Fraction(_quantize((Fraction("0.80") * d + Fraction("6.8")) * p, 4))
     return {"D": float(d), "p": float(p), "E0": float(e0), "E1": float(e1), "L1": float(l1),
             "L2": float(l2), "L3": float(Fraction(l3_text))}
