@@ -126,7 +126,9 @@ def _check_class(spec: ThreadSpec) -> None:
     if spec.tol_class is None:
         return
     valid = classes(spec)
-    if spec.tol_class not in valid:
+    if not valid:
+        limits(spec)   # the family says why this kind has no class (or accepts it)
+    elif spec.tol_class not in valid:
         raise InvalidEntry(f"Class {spec.tol_class!r} is not given for an {spec.kind} "
                            f"{spec.size} thread; use one of: {', '.join(valid)}.")
 
