@@ -25,7 +25,7 @@ if TYPE_CHECKING:
 
 STARTS_CYCLE = (1, 2, 3, 4, 5, 6, 8)
 NO_CLASS = "basic size"
-ONE_CLASS = "the standard's tolerance"   # a pipe thread with no class to choose
+ONE_CLASS = "standard tolerance"   # a pipe thread with no class to choose
 
 
 @dataclass
