@@ -40,6 +40,7 @@ from fractions import Fraction
 from shopterm.errors import InvalidEntry, UnknownThread, UnsupportedClass
 from shopterm.standards.forms import NPT_60, WHITWORTH_55
 from shopterm.standards.spec import Limits, Taper, ThreadSpec, inch
+from shopterm.standards.whitworth import _size_value   # inch sizes as written, exactly
 from shopterm.units import MM_PER_INCH
 
 FAMILY = "pipe"
@@ -128,16 +129,6 @@ _NPT_RE = re.compile(rf"^(?P<size>{_SIZE})\s*(?:\"|in)?\s*(?:-\s*(?P<tpi>\d+(?:\
                      r"(?P<series>NPT|NPSM|NPTF|NPS|NPSC|NPSF|NPSI|NPSL|BSPP|BSPT|BSP)$",
                      re.IGNORECASE)
 _ISO_SERIES = {"G": "G", "R": "R", "RC": "Rc", "RP": "Rp"}
-
-
-def _size_value(size: str) -> Fraction:
-    if m := re.fullmatch(r"(\d+)[-\s](\d+)/(\d+)", size):
-        return int(m[1]) + Fraction(int(m[2]), int(m[3]))
-    if m := re.fullmatch(r"(\d+)/(\d+)", size):
-        if int(m[2]) == 0:
-            raise InvalidEntry(f"{size!r}: a fraction cannot have 0 below the line.")
-        return Fraction(int(m[1]), int(m[2]))
-    return Fraction(int(size))
 
 
 def _find_size(size: str, names) -> str | None:
