@@ -13,6 +13,8 @@ Each family lives in its own module and offers the same five functions:
 ``classes(spec) -> list[str]``
     the classes the family's tables give for this size and kind (for the list walk).
 
+A family may also offer ``cautions(spec) -> tuple[str, ...]`` (see ``cautions`` below).
+
 The registry below strips what all families share (``LH``, a trailing ``internal``/``external``)
 and asks each family in turn.
 """

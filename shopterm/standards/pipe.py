@@ -118,6 +118,9 @@ NPT: dict[str, tuple[str, str, str, str]] = {
 #: NPT basic thread height h = 0.800p (ASME B1.20.1, from memory).
 NPT_H = 0.8
 
+_G_NOTE = ("ISO 228-1 fastening thread: it does not seal on the thread (use a washer, seal ring "
+           "or face).")
+
 #: Shown on every pipe thread (thread screen, calc limits).
 PRESSURE_CAUTION = ("A pressure fitting's fitness for service is not settled by its dimensions: "
                     "follow the applicable code and the fitting maker.")
@@ -184,12 +187,10 @@ def _parse_iso(text: str, m: re.Match) -> ThreadSpec:
     cls = m["cls"].upper() if m["cls"] else None
     if size is None:
         std = "ISO 228-1" if series == "G" else "ISO 7-1"
+        suffix = (cls or "") if series == "G" else ""
         raise UnknownThread(
             f"{text!r}: {std} has no {m['size']} size for {series}; sizes are "
-            f"{', '.join(names)}.",
-            _nearest(m["size"], names, lambda n: format(_iso_spec(
-                series, n, "internal" if series in ("Rc", "Rp") or (series == "G" and not cls)
-                else "external", cls if series == "G" else None))))
+            f"{', '.join(names)}.", _nearest(m["size"], names, lambda n: f"{series}{n}{suffix}"))
     if series == "G":
         if cls is not None and cls not in ("A", "B"):
             raise UnsupportedClass(f"{text!r}: ISO 228-1 classes are A and B (external): "
@@ -287,8 +288,7 @@ def limits(spec: ThreadSpec) -> Limits:
         td1, td2, td = (v / 1000 for v in G_TOL[spec.size])
         if spec.is_external:
             cls = spec.tol_class or "A"
-            notes = ["ISO 228-1 fastening thread: it does not seal on the thread (use a washer, "
-                     "seal ring or face)."]
+            notes = [_G_NOTE]
             if spec.tol_class is None:
                 notes.append("No class given: limits for class A.")
             return Limits(major_max=d, major_min=d - td, pd_max=d2,
@@ -296,16 +296,15 @@ def limits(spec: ThreadSpec) -> Limits:
                           minor_max=d1, minor_min=None, notes=tuple(notes), **common)
         return Limits(major_max=None, major_min=d, pd_max=d2 + td2, pd_min=d2,
                       minor_max=d1 + td1, minor_min=d1,
-                      notes=("ISO 228-1 fastening thread: it does not seal on the thread (use "
-                             "a washer, seal ring or face).",
-                             "Major diameter max is not set by ISO 228-1."), **common)
+                      notes=(_G_NOTE, "Major diameter max is not set by ISO 228-1."), **common)
     a, t1, t1_turns, t2, t2_turns, useful, rp_tol = ISO7[spec.size]
     if spec.series == "Rp":
         return Limits(major_max=None, major_min=d - rp_tol, pd_max=d2 + rp_tol,
                       pd_min=d2 - rp_tol, minor_max=d1 + rp_tol, minor_min=d1 - rp_tol,
                       notes=(f"ISO 7-1 parallel internal thread for an R{spec.size}: "
                              f"± {rp_tol:.3f} mm on diameter.",
-                             "It seals on the thread only with a sealant, mated with a taper R."),
+                             "Pressure-tight on the thread only with a taper R and a jointing "
+                             "compound."),
                       **common)
     if spec.is_external:
         band = t1 * TAPER
