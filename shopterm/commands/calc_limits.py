@@ -3,8 +3,8 @@
 from __future__ import annotations
 
 from shopterm.commands import add_json_option, add_units_option, emit_json, length_out, print_table
+from shopterm.standards import cautions, parse
 from shopterm.standards import limits as thread_limits
-from shopterm.standards import parse
 from shopterm.standards.spec import Limits
 from shopterm.units import format_length
 
@@ -54,7 +54,25 @@ def taper_dict(taper, unit: str) -> dict | None:
             "gauge_plane_tolerance": length_out(taper.gauge_plane_tolerance, unit),
             "gauge_diameter": length_out(taper.gauge_diameter, unit),
             "E0": length_out(taper.E0, unit), "E1": length_out(taper.E1, unit),
-            "L1": length_out(taper.L1, unit), "L2": length_out(taper.L2, unit)}
+            "L1": length_out(taper.L1, unit), "L2": length_out(taper.L2, unit),
+            "L3": length_out(taper.L3, unit)}
+
+
+def taper_lines(taper, f, f_pd) -> list[str]:
+    """Return the text lines ``calc limits`` prints for a taper (none for a parallel thread);
+    ``f`` formats a length, ``f_pd`` E0 and E1 (printed one place finer by ASME B1.20.1)."""
+    if taper is None:
+        return []
+    where = (f"{f(taper.gauge_plane_from_end)} from the small end"
+             if taper.gauge_plane_from_end else "at the face of the fitting")
+    out = [f"taper {taper.per_unit_on_diameter:g} on diameter ({taper.half_angle_deg:.4f}° to "
+           f"the axis); gauge plane {where}, ± {f(taper.gauge_plane_tolerance)}"]
+    sizes = [(name, getattr(taper, attr)) for name, attr in
+             (("gauge diameter", "gauge_diameter"), ("E0", "E0"), ("E1", "E1"), ("L1", "L1"),
+              ("L2", "L2"), ("L3", "L3")) if getattr(taper, attr) is not None]
+    out.append("   ".join(f"{name} {(f_pd if name in ('E0', 'E1') else f)(v)}"
+                           for name, v in sizes))
+    return out
 
 
 def run(args) -> int:
@@ -76,6 +94,11 @@ def run(args) -> int:
                  ("pitch diameter", f(lim.pd_max), f(lim.pd_min)),
                  ("minor", f(lim.minor_max), f(lim.minor_min))], header=("", "max", "min"))
     print(f"basic depth {f(lim.depth)}   lead angle {lim.lead_angle_deg:.2f}°")
+    for line in taper_lines(lim.taper, f, lambda v: format_length(v, unit, res / 10,
+                                                                  suffix=False)):
+        print(line)
     for note in lim.notes:
         print(f"note: {note}")
+    for caution in cautions(spec):
+        print(f"caution: {caution}")
     return 0

@@ -55,7 +55,8 @@ def run(args) -> int:
     if not spec.is_external:
         raise InvalidEntry(fit_check_offer(spec).message)
     lim = thread_limits(spec)
-    if spec.tol_class is None:     # basic size only: the band is the basic pitch diameter
+    basic_only = spec.tol_class is None and spec.family != "pipe"   # pipe: one tolerance, no class
+    if basic_only:                 # basic size only: the band is the basic pitch diameter
         lim = dataclasses.replace(lim, pd_max=lim.basic_pd, pd_min=lim.basic_pd)
     native = spec.native_unit
     unit = args.units or native
@@ -142,8 +143,9 @@ def run(args) -> int:
     def f(v):
         return format_length(v, unit, res, suffix=False)
 
-    band_text = ("basic size" if spec.tol_class is None
-                 else f"{spec.tol_class}: {f(lim.pd_max)} to {f(lim.pd_min)}")
+    band_text = ("basic size" if basic_only else
+                 f"{spec.tol_class or ('at the gauge plane' if lim.taper else 'limits')}: "
+                 f"{f(lim.pd_max)} to {f(lim.pd_min)}")
     print(f"{spec.designation}  ({spec.form.angle_deg:g}° form, pitch diameter {band_text})  "
           f"[{unit}]")
     rng = choice.range

@@ -13,6 +13,8 @@ Each family lives in its own module and offers the same five functions:
 ``classes(spec) -> list[str]``
     the classes the family's tables give for this size and kind (for the list walk).
 
+A family may also offer ``cautions(spec) -> tuple[str, ...]`` (see ``cautions`` below).
+
 The registry below strips what all families share (``LH``, a trailing ``internal``/``external``)
 and asks each family in turn. A family with ``WRITES_HAND = True`` writes the hand in its own
 ``format`` (``Tr20x4LH``, ``3/4-6 ACME-2G-LH``); the registry adds `` LH`` for the others.
@@ -32,7 +34,8 @@ from shopterm.errors import InvalidEntry, UnknownThread
 if TYPE_CHECKING:
     from shopterm.standards.spec import Limits, ThreadSpec
 
-__all__ = ["parse", "limits", "catalogue", "format_designation", "classes", "family_module",
+__all__ = ["parse", "limits", "catalogue", "format_designation", "classes", "cautions",
+           "family_module",
            "ThreadSpec", "Limits", "FAMILIES"]
 
 #: Family keys in the order they are asked to parse, with the module that implements each.
@@ -44,6 +47,7 @@ FAMILIES: dict[str, str] = {
     "trapezoidal": "shopterm.standards.trapezoidal",
     "acme": "shopterm.standards.acme",
     "square": "shopterm.standards.square",
+    "pipe": "shopterm.standards.pipe",
     "special": "shopterm.standards.special",
 }
 
@@ -55,6 +59,7 @@ FAMILY_TITLES: dict[str, str] = {
     "trapezoidal": "ISO metric trapezoidal (Tr)",
     "acme": "Acme and stub Acme",
     "square": "Square (no standard)",
+    "pipe": "Pipe threads (G, R, NPT)",
     "special": "Special",
 }
 
@@ -90,7 +95,8 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
     """
     if not isinstance(text, str) or not text.strip():
         raise InvalidEntry("Type a thread designation such as M10x1.5-6g, 1/4-20 UNC-2A, "
-                           "3/8 BSW, 2BA, 1/4x40 ME, Tr20x4-7e or 1-5 ACME-2G.")
+                           "3/8 BSW, 2BA, 1/4x40 ME, Tr20x4-7e, 1-5 ACME-2G, G1/2A or "
+                           "1/2-14 NPT.")
     s = " ".join(text.strip().split())
     hand = None
     for _ in range(2):
@@ -108,11 +114,9 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
         if spec is None:
             continue
         if kind is not None and spec.kind != kind:
-            if spec.tol_class is not None and family in ("iso", "unified"):
-                raise InvalidEntry(
-                    f"Class {spec.tol_class} is for an {spec.kind} thread, not {kind}: "
-                    + ("use a lower-case letter (6g) for external, capital (6H) for internal."
-                       if family == "iso" else "use A for external, B for internal."))
+            if spec.tol_class is not None and family in _CLASS_SAYS_KIND:
+                raise InvalidEntry(f"Class {spec.tol_class} is for an {spec.kind} thread, not "
+                                   f"{kind}: {_CLASS_SAYS_KIND[family]}")
             spec = spec.with_(kind=kind)
             _check_class(spec)
         return spec.with_(hand=hand) if hand is not None and hand != spec.hand else spec
@@ -120,11 +124,21 @@ def parse(text: str, kind: str | None = None) -> ThreadSpec:
                         suggest(s))
 
 
+#: Families whose class letter says the kind, and how to write the other kind.
+_CLASS_SAYS_KIND = {
+    "iso": "use a lower-case letter (6g) for external, capital (6H) for internal.",
+    "unified": "use A for external, B for internal.",
+    "pipe": "ISO 228-1 classes A and B are external; write an internal G with no letter (G1/2).",
+}
+
+
 def _check_class(spec: ThreadSpec) -> None:
     if spec.tol_class is None:
         return
     valid = classes(spec)
-    if spec.tol_class not in valid:
+    if not valid:
+        limits(spec)   # the family says why this kind has no class (or accepts it)
+    elif spec.tol_class not in valid:
         raise InvalidEntry(f"Class {spec.tol_class!r} is not given for an {spec.kind} "
                            f"{spec.size} thread; use one of: {', '.join(valid)}.")
 
@@ -146,6 +160,14 @@ def format_designation(spec: ThreadSpec) -> str:
 def classes(spec: ThreadSpec) -> list[str]:
     """Return the classes the standard gives for this thread's size and kind."""
     return family_module(spec.family).classes(spec)
+
+
+def cautions(spec: ThreadSpec) -> tuple[str, ...]:
+    """Return the cautions to show with this thread (a family may have none).
+
+    Pipe threads: a pressure fitting's fitness for service is not settled by its dimensions.
+    """
+    return tuple(getattr(family_module(spec.family), "cautions", lambda s: ())(spec))
 
 
 @lru_cache(maxsize=1)

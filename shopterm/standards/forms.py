@@ -2,8 +2,8 @@
 
 References: ISO 68-1 (60° basic profile); ASME B1.1 (Unified, same basic profile);
 BS 84 (Whitworth form, 55°); BS 93 (BA form, 47.5°); ISO 2901 (trapezoidal, 30°);
-ASME B1.5 (Acme, 29°); ASME B1.8 (stub Acme, 29°, from memory); square thread (no standard).
-Factors as printed in those standards.
+ASME B1.5 (Acme, 29°); ASME B1.8 (stub Acme, 29°, from memory); square thread (no standard);
+ASME B1.20.1 (NPT, 60°, h = 0.8p). Factors as printed in those standards.
 """
 
 from __future__ import annotations
@@ -82,6 +82,9 @@ TRAPEZOIDAL_30 = ThreadForm("trap30", "Trapezoidal 30°", 30.0, 1.866025, (1.866
 ACME_29 = ThreadForm("acme29", "Acme 29°", 29.0, _sharp_height(29.0),
                      (_sharp_height(29.0) - 0.5) / 2, (_sharp_height(29.0) - 0.5) / 2)
 
+#: ASME B1.20.1 NPT: 60°, flat crest and root, basic height h = 0.800p (equal truncations).
+NPT_60 = ThreadForm("npt60", "NPT 60°", 60.0, _H60, (_H60 - 0.8) / 2, (_H60 - 0.8) / 2)
+
 #: ASME B1.8 stub Acme (29°): basic depth 0.3P, so crest and root flats 0.4224P.
 STUB_ACME_29 = ThreadForm("stubacme29", "Stub Acme 29°", 29.0, _sharp_height(29.0),
                           (_sharp_height(29.0) - 0.3) / 2, (_sharp_height(29.0) - 0.3) / 2)
@@ -93,7 +96,7 @@ SQUARE_0 = ThreadForm("square0", "Square", 0.0, 0.5, 0.0, 0.0)  # common practic
 #: from one (three wires, compound infeed) applies to it.
 FORMS: dict[str, ThreadForm] = {f.key: f for f in
                                 (ISO_60, UNIFIED_60, WHITWORTH_55, BA_47_5, TRAPEZOIDAL_30, ACME_29,
-                                 STUB_ACME_29)}
+                                 STUB_ACME_29, NPT_60)}
 
 
 def form_for_angle(angle_deg: float) -> ThreadForm:

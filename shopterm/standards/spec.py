@@ -123,6 +123,11 @@ class Taper:
     ``gauge_diameter`` is the diameter the standard gauges there (ISO 7-1: the major diameter
     at the gauge plane; NPT: None, E0 and E1 given instead). ``gauge_plane_tolerance`` is the
     ± axial position allowed for the gauge plane [mm].
+
+    An internal tapered thread is gauged at the face of the fitting: ``gauge_plane_from_end``
+    is then 0, measured from the opening (the large end). ``L1`` is the hand-tight engagement
+    (ISO 7-1: the gauge length), ``L2`` the effective thread (ISO 7-1: the minimum useful
+    thread of the external thread; None where not built in), ``L3`` the wrench make-up.
     """
 
     per_unit_on_diameter: float
@@ -133,6 +138,7 @@ class Taper:
     E1: float | None = None          # pitch diameter at the hand-tight plane (NPT) [mm]
     L1: float | None = None          # hand-tight engagement [mm]
     L2: float | None = None          # effective (useful) thread length [mm]
+    L3: float | None = None          # wrench make-up beyond hand-tight (NPT) [mm]
 
     @property
     def half_angle_deg(self) -> float:

@@ -468,7 +468,8 @@ def limits(spec: ThreadSpec) -> Limits:
     External: major and PD max/min; minor max (UNR: basic major − allowance − 1.226869P;
     UN flat root: basic minor − allowance); root radius 0.108P–0.144P for UNR.
     Internal: major min = basic major; PD min = basic PD, max = min + TD2; minor min = basic
-    minor, max = min + TD1 (printed to 0.001 in for 1B/2B, 1/4 in and larger; else 0.0001 in).
+    minor, max = min + TD1 (printed to 0.001 in for 1B/2B, 1/4 in and larger; else 0.0001 in),
+    both from the basic minor already rounded to 0.0001 in.
     ``depth``: 0.613435P on radius for external threads (17/24 H, major to the UNR root), which
     is what the tool must reach so the screw clears the nut's crest; 0.541266P for internal
     (5/8 H, the basic depth of engagement), the same two depths as ISO h3/H1.
@@ -541,7 +542,10 @@ def limits(spec: ThreadSpec) -> Limits:
     pd_max = basic_pd + td2
     tol1 = _round(_dec(_internal_minor_tolerance(d_in, p_in, cls)))
     step = _THOU if cls in ("1B", "2B") and d_in >= 0.25 else _TENTH_THOU
-    minor_min = _round(_dec(d_in - 1.082532 / tpi), step)
+    # Min minor = the basic minor as the table prints it (0.0001 in), then to the class's step:
+    # 1-3/4-5 basic minor 1.53349.. prints 1.5335, so 2B min minor 1.534 (ASME B1.1 table);
+    # rounding the unrounded value gives 1.533.
+    minor_min = _round(basic_minor, step)
     minor_max = _round(basic_minor + tol1, step)
     notes.append("Major diameter max is not set by ASME B1.1: the tap or tool crest sets it.")
     depth = 0.541266 * p_in

@@ -31,6 +31,7 @@ GROUPS: tuple[Group, ...] = (
     Group("ba", "BA", ("ba",)),
     Group("me", "Model engineer (32/40 tpi)", ("whitworth",), ("ME",)),
     Group("power", "Leadscrew: trapezoidal, Acme", ("trapezoidal", "acme", "square")),
+    Group("pipe", "Pipe threads: G, R, NPT", ("pipe",)),
     Group("special", "Special thread", ("special",)),
 )
 

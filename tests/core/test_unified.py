@@ -555,3 +555,35 @@ def test_designation_like_text_is_answered(size, tpi, word, cls):
         return
     if spec is not None:
         assert unified.parse(unified.format(spec)) == spec
+
+
+# ---------------------------------------------------------------------------------------------
+# Internal minor diameter minimum: the basic minor as the table prints it (0.0001 in), then
+# rounded to the class's step (0.001 in for 1B/2B from 1/4 in up, else 0.0001 in).
+# ---------------------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("thread,minor_min", [
+    ("1-3/4-5 UNC-2B", 1.534),   # ASME B1.1 table, 1-3/4-5 UNC-2B minor dia min
+    ("1-3/4-5 UNC-1B", 1.534),   # ASME B1.1 table, 1-3/4-5 UNC-1B minor dia min
+    ("3/8-16 UNC-2B", 0.307),    # ASME B1.1 table, minor min
+    ("1/4-20 UNC-2B", 0.196),    # ASME B1.1 table, minor min
+    ("1-8 UNC-2B", 0.865),       # ASME B1.1 table, minor min
+])
+def test_internal_minor_min_printed(thread, minor_min):
+    assert inches(lim(thread).minor_min) == pytest.approx(minor_min, abs=TOL)
+
+
+@pytest.mark.parametrize("spec", [s for s in registry.catalogue()
+                                  if s.family == "unified" and s.starts == 1],
+                         ids=lambda s: s.designation)
+def test_internal_minor_min_rule_whole_catalogue(spec):
+    # Computed from the ASME B1.1 formula D - 1.082532/n, rounded half up first to 0.0001 in
+    # (the printed basic minor), then to the class's step; rounding the unrounded value once
+    # gives 1.533 for 1-3/4-5, where the ASME B1.1 table prints 1.534.
+    d = Fraction(str(round(spec.major / IN, 4)))
+    basic = half_up(d - Fraction("1.082532") / Fraction(str(spec.tpi)), 4)
+    for cls in ("1B", "2B", "3B"):
+        L = unified.limits(spec.with_(kind="internal", tol_class=cls))
+        places = 3 if cls in ("1B", "2B") and d >= Fraction(1, 4) else 4
+        assert inches(L.minor_min) == pytest.approx(float(half_up(basic, places)), abs=TOL)
+        assert inches(L.basic_minor) == pytest.approx(float(basic), abs=TOL)

@@ -18,7 +18,7 @@ from textual.widgets import Static
 from shopterm.errors import ShoptermError
 from typing import TYPE_CHECKING
 
-from shopterm.standards import classes, limits, numeric, parse, walk
+from shopterm.standards import cautions, classes, limits, numeric, parse, walk
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.widgets.entry import KeypadEntry
@@ -30,6 +30,12 @@ if TYPE_CHECKING:
 
 STARTS_CYCLE = (1, 2, 3, 4, 5, 6, 8)
 NO_CLASS = "basic size"
+ONE_CLASS = "standard tolerance"   # a pipe thread with no class to choose
+
+
+def no_class_word(spec) -> str:
+    """Return what a thread without a class is cut to: its one tolerance, or basic size."""
+    return ONE_CLASS if spec.family == "pipe" else NO_CLASS
 
 
 @dataclass
@@ -112,6 +118,8 @@ def thread_summary(spec: ThreadSpec, display_unit: str) -> Text:
                + f" · lead angle {lim.lead_angle_deg:.2f}°")
     for note in lim.notes[:2]:
         out.append(f"\nnote: {note}", style="dim")
+    for caution in cautions(spec):
+        out.append(f"\ncaution: {caution}", style="bold")
     return out
 
 
@@ -207,14 +215,14 @@ class ThreadScreen(ShopScreen):
             cls = classes(w.spec.with_(tol_class=None))
             items = [(c, ("cls", c)) for c in cls]
             if not cls or w.spec.family in ("whitworth", "ba"):
-                items.append((NO_CLASS, ("cls", None)))
+                items.append((no_class_word(w.spec), ("cls", None)))
             return f"Class of fit ({w.spec.kind})", items
         if w.spec is not None:
             spec = w.spec
             hand = "left hand" if spec.hand == "LH" else "right hand"
             other = "internal (nut)" if spec.is_external else "external (screw)"
             return ("This thread", [("use it →", "use"), (f"make it {other}", "kind"),
-                                    (f"class: {spec.tol_class or NO_CLASS}", "class"),
+                                    (f"class: {spec.tol_class or no_class_word(spec)}", "class"),
                                     (f"hand: {hand}", "hand"),
                                     (f"starts: {spec.starts}", "starts"),
                                     ("choose again", "again")])

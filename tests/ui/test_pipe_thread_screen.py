@@ -1,0 +1,48 @@
+"""Pipe threads on the thread-choice screen at 80x24: the walk by keypad digits, the taper
+notes and the pressure caution every pipe thread shows."""
+
+import pytest
+
+from shopterm.standards import walk
+from tests.ui.conftest import screen_text
+
+pytestmark = pytest.mark.asyncio
+
+CAUTION = "fitness for service is not settled"
+
+
+async def test_walk_to_r_half_shows_gauge_plane_and_caution(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        picks = app.screen.query_one("#choices")
+        labels = [lbl for lbl, _ in picks.page_items()]
+        assert len(labels) <= 9                       # each family picked by one digit
+        await pilot.press(str(labels.index(walk.group("pipe").title) + 1))
+        labels = [lbl for lbl, _ in picks.page_items()]
+        await pilot.press(str(labels.index("R") + 1))
+        labels = [lbl for lbl, _ in picks.page_items()]
+        await pilot.press(str(labels.index("1/2") + 1))
+        await pilot.press("1")                         # external
+        assert "standard tolerance" in screen_text(app)
+        await pilot.press("1")
+        text = screen_text(app)
+        assert "R1/2" in text and "gauge plane" in text and CAUTION in text
+        assert "19.906" in text and "19.681" in text   # ISO 7-1: 19.793 ± 1.8/16 (from memory)
+
+
+@pytest.mark.parametrize("typed", ["G3/4", "1/2-14 NPT", "Rp1/2", "G1/2A"])
+async def test_every_pipe_thread_shows_the_caution(make_app, typed):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        # Tab opens the designation field (a leading digit would pick from the list)
+        await pilot.press("tab", *("space" if c == " " else c for c in typed))
+        await pilot.press("enter")
+        assert CAUTION in screen_text(app)
+
+
+async def test_no_caution_on_a_bolt_thread(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await pilot.press(*"M10x1.5-6g")
+        await pilot.press("enter")
+        assert CAUTION not in screen_text(app)
