@@ -426,7 +426,8 @@ def _along_taper(lim: Limits) -> Limits:
         down = t.diameter_shift(t.gauge_plane_from_end)
         up = t.diameter_shift(max((t.L2 or 0.0) - t.gauge_plane_from_end, 0.0))
     else:
-        down, up = t.diameter_shift(t.L2 or t.gauge_plane_from_end), 0.0
+        from shopterm.cutting.taper_thread import thread_length
+        down, up = t.diameter_shift(thread_length(t)), 0.0
     basic = {"major": lim.basic_major, "pd": lim.basic_pd, "minor": lim.basic_minor}
     out = {}
     for d, b in basic.items():

@@ -73,8 +73,15 @@ def gauge_plane_at(limits: Limits) -> float:
     return taper_of(limits).gauge_plane_from_end if limits.spec.is_external else 0.0
 
 
-def _thread_length(taper: Taper) -> float:
-    return taper.L2 if taper.L2 is not None else 2 * taper.gauge_plane_from_end
+def thread_length(taper: Taper) -> float:
+    """Return the length of thread [mm] from the end distances are measured from: L2; an
+    internal thread with none (ISO 7-1 Rc) as deep as a mating external reaches, L1 plus the
+    gauge plane's tolerance (computed from the gauge length)."""
+    if taper.L2 is not None:
+        return taper.L2
+    if taper.gauge_plane_from_end == 0 and taper.L1 is not None:
+        return taper.L1 + taper.gauge_plane_tolerance
+    return 2 * taper.gauge_plane_from_end
 
 
 def shift_to_gauge_plane(limits: Limits, distance: float) -> float:
@@ -85,7 +92,7 @@ def shift_to_gauge_plane(limits: Limits, distance: float) -> float:
     where = measured_from(limits)
     if not _number(distance) or distance < 0:
         raise InvalidEntry(f"Give the distance from {where} of the thread, 0 or more.")
-    longest = _thread_length(taper)
+    longest = thread_length(taper)
     if distance > longest + 1e-9:
         raise InvalidEntry(f"{distance:.2f} mm from {where} is beyond the thread "
                            f"({longest:.2f} mm long): check the distance and its unit.")
@@ -138,19 +145,20 @@ def taper_blank(limits: Limits, unit: Unit = "mm") -> TaperBlank:
         taper.gauge_diameter if taper.gauge_diameter is not None else limits.basic_major)
     at = gauge_plane_at(limits)
     end = gauge - shift_to_gauge_plane(limits, 0.0)
-    far = None if taper.L2 is None else gauge - shift_to_gauge_plane(limits, taper.L2)
+    length = thread_length(taper)
+    far = gauge - shift_to_gauge_plane(limits, length) if length > 0 else None
     f = lambda v: format_length(v, unit, 0.001 if unit == "mm" else 0.0001)   # noqa: E731
     where = measured_from(limits)
     if internal:
         text = (f"Bore the taper first, with the same set-over or attachment. It should "
                 f"measure {f(gauge)} at the face (the gauge plane)"
-                + (f" and {f(far)} {f(taper.L2)} in from it." if far is not None else "."))
+                + (f" and {f(far)} {f(length)} in from it." if far is not None else "."))
     else:
         text = (f"Turn the blank to the taper first, with the same set-over or attachment. "
                 f"It should measure {f(end)} at the small end and {f(gauge)} {f(at)} from it "
                 "(the gauge plane).")
     return TaperBlank(internal, taper.per_unit_on_diameter, where, at, end, gauge, far,
-                      taper.L2, text)
+                      length if far is not None else None, text)
 
 
 def blank_at_gauge_plane(limits: Limits, measured: float, distance: float) -> float:
@@ -252,7 +260,7 @@ class HandTightCheck:
     against: str
     stand_off: float             # + : the gauge stopped short of flush (thread still too tight)
     turns: float | None          # counted by hand, when given
-    expected_turns: float        # gauge_plane_from_end / pitch
+    expected_turns: float        # L1 (the gauge length) / pitch
     tolerance: float             # the gauge plane's ± position
     state: HandState
     to_remove: float             # pitch diameter to come off to bring it flush (0: none)
@@ -274,7 +282,7 @@ def hand_tight_check(limits: Limits, *, stand_off: float | None = None,
     Give one of: stand_off [mm], how far the gauge (or fitting) stopped short of flush (a
     ring gauge: the thread's small end inside the gauge's face by that much; a plug gauge:
     its notch standing proud of the fitting's face; negative: gone past flush); turns, made by
-    hand from the thread catching to hand tight (expected: gauge_plane_from_end / pitch).
+    hand from the thread catching to hand tight (expected: L1 / pitch, the gauge length).
     against: 'ring_gauge', 'plug_gauge' (internal thread) or 'fitting' (a mating part: not a
     gauge, so only a guide). The pitch diameter to remove is k × stand_off.
     References: this module's docstring.
@@ -295,8 +303,9 @@ def hand_tight_check(limits: Limits, *, stand_off: float | None = None,
         raise InvalidEntry("Give either the stand-off from flush or the turns made by hand, "
                            "one of the two.")
     pitch = spec.pitch
-    expected = taper.gauge_plane_from_end / pitch
-    gauge_len = taper.gauge_plane_from_end
+    # the gauge's length engaged by hand: L1 (an internal thread's gauge plane is its face)
+    gauge_len = taper.L1 if taper.L1 is not None else taper.gauge_plane_from_end
+    expected = gauge_len / pitch
     if turns is not None:
         if not _number(turns) or turns < 0:
             raise InvalidEntry("The turns made by hand are a number, 0 or more.")

@@ -93,7 +93,10 @@ def test_internal_taper_is_gauged_at_the_face():
     # ISO 7-1 minor 18.631 at the face (gauge plane at the face of an Rc, from memory)
     assert bore.internal and bore.measured_from == "the face" and bore.gauge_plane_at == 0
     assert bore.at_end == pytest.approx(18.631) and bore.at_gauge_plane == pytest.approx(18.631)
-    assert bore.at_far_end == pytest.approx(18.631 - 13.2 / 16)   # computed from the 1:16 taper
+    # ISO 7-1 gives an Rc no useful length of its own: as deep as a mating R reaches, gauge
+    # length 8.2 + the Rc's T2/2 2.3 (ISO 7-1 table 1, size 1/2, from memory), 1:16 taper
+    assert bore.thread_length == pytest.approx(8.2 + 2.3)
+    assert bore.at_far_end == pytest.approx(18.631 - 10.5 / 16)   # computed from the 1:16 taper
     assert "at the face" in bore.text
     # a bore measured 4 mm in is 4/16 smaller than at the face (computed)
     assert tt.blank_at_gauge_plane(rc, 18.631 - 0.25, 4.0) == pytest.approx(18.631)
@@ -204,8 +207,13 @@ def test_ring_gauge_stand_off_on_r_half():
 
 def test_plug_gauge_in_rc():
     rc = pipe_limits("R1/2", "internal")
-    c = tt.hand_tight_check(rc, stand_off=2.0, against="plug_gauge")
-    assert c.state == "feed_on" and c.to_remove == pytest.approx(2.0 / 16)
+    # Rc1/2 gauge plane ± T2/2 = 2.3 mm (ISO 7-1 table 1, from memory): 2.0 short is in,
+    # 3.0 short is not; k × 3.0 off the PD (computed from the 1:16 taper)
+    assert tt.hand_tight_check(rc, stand_off=2.0, against="plug_gauge").state == "done"
+    c = tt.hand_tight_check(rc, stand_off=3.0, against="plug_gauge")
+    assert c.state == "feed_on" and c.to_remove == pytest.approx(3.0 / 16)
+    # the plug gauge's length engaged by hand is the gauge length L1 = 8.2 (ISO 7-1, from memory)
+    assert c.expected_turns == pytest.approx(8.2 * 14 / 25.4)
     assert "outward" in c.direction
     f = tt.hand_tight_check(rc, stand_off=0.5, against="fitting")
     assert f.state == "done" and "not a gauge" in f.headline
@@ -238,12 +246,12 @@ def test_taper_tells_tapered_from_parallel():
     threads = _pipes_and_catalogue()
     # a 1/2 in pipe thread, 14 tpi, crest 20.5 mm and 21.1 mm 10 mm apart (tapered 0.06/mm)
     ident = identify(major=20.9, tpi=14, taper=(20.5, 21.1, 10.0), threads=threads)
-    top = [c.spec.size for c in ident.candidates[:2]]
+    top = [c.spec.designation for c in ident.candidates[:2]]
     assert set(top) == {"R1/2", "1/2-14 NPT"}
-    assert all(c.spec.size != "G1/2" or c.score < 1e-3 for c in ident.candidates)
+    assert all(c.spec.designation != "G1/2A" or c.score < 1e-3 for c in ident.candidates)
     # the same with a parallel crest: G1/2
     ident = identify(major=20.9, tpi=14, taper=(20.9, 20.9, 10.0), threads=threads)
-    assert ident.candidates[0].spec.size == "G1/2"
+    assert ident.candidates[0].spec.designation.startswith("G1/2")
     # 1/2 in pipe is 14 tpi, not a 1/2 in bolt: no 1/2-13 UNC anywhere
     assert not any("1/2-13" in c.designation for c in ident.candidates)
 
