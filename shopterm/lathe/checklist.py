@@ -40,7 +40,8 @@ def build_checklist(*, between_centres: bool, internal: bool, compound_setting_d
                     compound_true_deg: float | None = None,
                     half_nut_stays_closed: bool = False,
                     starts: int = 1, indexing: str | None = None,
-                    left_hand: bool = False) -> tuple[ChecklistItem, ...]:
+                    left_hand: bool = False,
+                    taper: tuple[tuple[str, str, str], ...] = ()) -> tuple[ChecklistItem, ...]:
     """Return the checklist items that apply to this set-up, in the order to check them.
 
     between_centres (work driven by a carrier, not held in a chuck); internal (a boring tool
@@ -48,7 +49,9 @@ def build_checklist(*, between_centres: bool, internal: bool, compound_setting_d
     compound scale*; compound_true_deg [deg] the same angle from the cross-slide, for the
     detail; half_nut_plan (one line, e.g. from ``DialPlan.describe()``); has_relief (a thread
     relief groove to run out into); half_nut_stays_closed (the dial cannot be used: reverse
-    the spindle); starts, indexing (the method chosen to move to the next start); left_hand.
+    the spindle); starts, indexing (the method chosen to move to the next start); left_hand;
+    taper: (key, text, detail) lines of a tapered thread (``lathe.taper.checklist_lines``): an
+    item with the key ``tool_square`` takes the place of the usual one.
     References: common shop practice, no single published source.
     """
     if not isinstance(half_nut_plan, str) or not half_nut_plan.strip():
@@ -60,7 +63,10 @@ def build_checklist(*, between_centres: bool, internal: bool, compound_setting_d
         _item("centre_height", "Tool point at centre height",
               "Check it against the tailstock centre or a height gauge."),
     ]
-    if internal:
+    taper_items = {key: _item(key, text, detail) for key, text, detail in taper}
+    if "tool_square" in taper_items:
+        items.append(taper_items.pop("tool_square"))
+    elif internal:
         items.append(_item(
             "tool_square", "Boring tool square to the work: thread gauge on a true surface",
             "Hold the thread gauge against the turned face or outside diameter and set the "
@@ -70,6 +76,7 @@ def build_checklist(*, between_centres: bool, internal: bool, compound_setting_d
             "tool_square", "Tool square to the work: thread gauge on the turned diameter",
             "Hold the thread gauge against the turned diameter and set the tool's point into "
             "its notch."))
+    items.extend(taper_items.values())
     detail = ("As this lathe's scale reads it"
               + (f" ({compound_true_deg:g} deg true from the cross-slide)."
                  if compound_true_deg is not None else "."))

@@ -260,3 +260,68 @@ def taper_setups(lathe: Lathe | None, k: float, work_length: float | None,
     att, att_why = attempt(attachment_setting, lathe, k, taper_length)
     comp, comp_why = attempt(compound_taper, lathe, k, taper_length)
     return TaperSetups(k, half_angle_deg(k), so, so_why, att, att_why, comp, comp_why)
+
+
+# ---- the set-up's answer -------------------------------------------------------------------------
+
+#: How a tapered thread's taper is made, as the set-up records it (``taper`` ``method``).
+TAPER_METHODS = ("set_over", "attachment", "compound")
+
+
+def setup_value(setups: TaperSetups, method: str, *, internal: bool = False) -> dict:
+    """Return the set-up's ``taper`` value for ``method`` (DEVELOPERS.md, set-up keys).
+
+    setups: from ``taper_setups``; method: one of ``TAPER_METHODS``; internal: the thread is
+    internal (its large end, the face, is at the tailstock), else the small end is at the
+    tailstock. Raises ``InvalidEntry`` with the refusal when this lathe cannot make the thread's
+    taper that way: the compound turns the blank only, so it is always refused for the thread
+    (its setting for the blank is in the message).
+    """
+    if method == "set_over":
+        so = setups.set_over
+        if so is None:
+            raise InvalidEntry(setups.set_over_refused)
+        # smaller at the tailstock: offset toward the tool (the SetOver's direction)
+        return {"method": method, "k": so.k, "work_length_mm": so.work_length,
+                "taper_length_mm": so.taper_length, "set_over_mm": so.set_over,
+                "divisions": so.divisions, "scale_unit": so.scale_unit,
+                "toward_tool": not internal, "text": so.text}
+    if method == "attachment":
+        att = setups.attachment
+        if att is None:
+            raise InvalidEntry(setups.attachment_refused)
+        return {"method": method, "k": att.k, "taper_length_mm": att.taper_length,
+                "setting": att.setting, "scale": att.scale,
+                "shown": f"{att.setting:.4g}{_UNIT_NAMES[att.scale]}", "text": att.text}
+    if method == "compound":
+        comp = setups.compound
+        if comp is None:
+            raise InvalidEntry(setups.compound_refused)
+        raise InvalidEntry(f"For the blank: {comp.text} {COMPOUND_NOTE}")
+    raise InvalidEntry("Make the taper by the set-over, the taper attachment or the compound.")
+
+
+def checklist_lines(value: dict) -> tuple[tuple[str, str, str], ...]:
+    """Return the checklist's (key, text, detail) lines for a set-up's ``taper`` value: the
+    taper's setting and the tool square to the axis. Raises ``InvalidEntry`` for a value that
+    is not one ``setup_value`` makes. References: common practice, no source."""
+    method = value.get("method") if isinstance(value, dict) else None
+    square = ("tool_square", "Tool set square to the work's axis, not to the taper",
+              TOOL_SQUARE)
+    if method == "set_over":
+        unit = value.get("scale_unit", "mm")
+        way = "toward the tool" if value.get("toward_tool", True) else "away from the tool"
+        lines = value.get("divisions")
+        scale = f"{round(lines, 2):g} lines on its scale; " if lines is not None else ""
+        end = "small end" if value.get("toward_tool", True) else "face of the bore"
+        text = f"Tailstock set over {_f(value['set_over_mm'], unit)} {way} (dial indicator)"
+        detail = (f"Check it with a dial indicator over the work length: {scale}work "
+                  f"{_f(value['work_length_mm'], unit)} between centres, {end} at the "
+                  f"tailstock. {SET_OVER_NOTE}")
+        return (("taper", text, detail), square)
+    if method == "attachment":
+        return (("taper", f"Taper attachment set to {value['shown']}, its bar clamped",
+                 "Take up the attachment's backlash: start each pass from the same side."),
+                square)
+    raise InvalidEntry("The set-up's taper is made by the set-over or the taper attachment: "
+                       "record it on the set-up screen.")

@@ -20,6 +20,8 @@ from textual.widgets import Static
 from shopterm.cutting.infeed import infeed_method
 from shopterm.errors import ShoptermError
 from shopterm.lathe.checklist import ChecklistItem, build_checklist
+from shopterm.lathe.taper import checklist_lines
+from shopterm.ui.screens.taperview import is_tapered
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 
@@ -62,7 +64,8 @@ def items_for(spec, lathe, setup: dict) -> tuple[ChecklistItem, ...]:
         half_nut_stays_closed=bool(plan.get("keep_half_nut_closed")),
         has_relief=bool(setup.get("relief")),
         starts=spec.starts, indexing=setup.get("indexing") or None,
-        left_hand=spec.hand == "LH")
+        left_hand=spec.hand == "LH",
+        taper=checklist_lines(setup.get("taper")) if is_tapered(spec) else ())
 
 
 def setup_problem(spec, setup: dict) -> str:
@@ -75,6 +78,9 @@ def setup_problem(spec, setup: dict) -> str:
             setup.get("starts", spec.starts) != spec.starts:
         return (f"The set-up in force was for {setup.get('for_thread')}; record the set-up "
                 f"for {spec.designation} first (- goes back to it).")
+    if is_tapered(spec) and not isinstance(setup.get("taper"), dict):
+        return ("Say how the taper is made (set-over or taper attachment) on the set-up "
+                "screen and record it: - goes back to it.")
     return ""
 
 

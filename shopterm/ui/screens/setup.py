@@ -20,12 +20,16 @@ from textual.app import ComposeResult
 from textual.message import Message
 from textual.widgets import Static
 
-from shopterm.errors import ShoptermError
+from shopterm.errors import InvalidEntry, ShoptermError
 from shopterm.lathe.gears import GearTrain, lead_made, trains_for_lathe
 from shopterm.lathe.indexing import IndexMethod, indexing_for_lathe
 from shopterm.lathe.thread_dial import DialPlan, dial_plan
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
+from shopterm.ui.screens.cutview import LengthEntry
+from shopterm.ui.screens.taperview import (LENGTH_QUESTION, TAPER_QUESTION, is_tapered,
+                                           taper_options, taper_summary, taper_value)
+from shopterm.ui.widgets.entry import KeypadEntry
 from shopterm.ui.widgets.picklist import PickList
 from shopterm.units import format_length
 
@@ -34,7 +38,7 @@ TRAINS_SHOWN = 6
 
 #: The keys this screen writes into the set-up record.
 SETUP_KEYS = ("train", "box", "dial_plan", "indexing", "indexing_method", "between_centres",
-              "relief", "for_thread", "starts")
+              "relief", "for_thread", "starts", "taper")
 
 HELD = (("in a chuck", False), ("between centres (carrier and driving plate)", True))
 RUNOUT = (("into a relief groove (undercut)", True), ("to a mark or a stop (no relief)", False))
@@ -232,6 +236,7 @@ class SetupScreen(ShopScreen):
     SetupScreen #question { height: 1; padding: 0 1; text-style: bold; color: $accent; }
     SetupScreen #header { height: 1; padding: 0 1; color: $text-muted; }
     SetupScreen #choices { min-height: 1; }
+    SetupScreen #length { height: 1; padding: 0 1; }
     SetupScreen #detail { height: auto; max-height: 4; padding: 0 1; }
     SetupScreen #caution { height: auto; padding: 0 1; color: $warning; text-style: bold; }
     SetupScreen #others { height: 1; padding: 0 1; color: $text-muted;
@@ -251,6 +256,8 @@ class SetupScreen(ShopScreen):
         self.held: bool | None = None
         self.relief: bool | None = None
         self.method_key: str | None = None
+        self.taper_method: str | None = None    # tapered threads: how the taper is made
+        self.work_length: float | None = None   # [mm] between centres, for the set-over
         self.step = 0
 
     def compose_body(self) -> ComposeResult:
@@ -259,6 +266,7 @@ class SetupScreen(ShopScreen):
         yield Static("", id="question")
         yield Static("", id="header")
         yield ChoiceList(id="choices", columns=1)
+        yield LengthEntry(id="length")
         yield Static("", id="detail")
         yield Static("", id="caution")
         yield Static("", id="others")
@@ -285,6 +293,7 @@ class SetupScreen(ShopScreen):
         if key != self.key:
             self.key, self.found, self.step = key, None, 0
             self.train_i, self.held, self.relief, self.method_key = 0, None, None, None
+            self.taper_method, self.work_length = None, None
             if key is not None:
                 self.say("Working out the change gears…")
                 self.search(key, self.app.spec.lead)
@@ -325,6 +334,10 @@ class SetupScreen(ShopScreen):
         if isinstance(rec.get("relief"), bool):
             self.relief = rec["relief"]
         self.method_key = rec.get("indexing_method")
+        taper = rec.get("taper")
+        if isinstance(taper, dict):
+            self.taper_method = taper.get("method")
+            self.work_length = taper.get("work_length_mm")
 
     # -- what is chosen ------------------------------------------------------------------------
     @property
@@ -366,6 +379,10 @@ class SetupScreen(ShopScreen):
         out = ["gears", "held", "runout"]
         if self.app.spec is not None and self.app.spec.starts > 1:
             out.append("indexing")
+        if is_tapered(self.app.spec):
+            out.append("taper")
+            if self.taper_method == "set_over":
+                out.append("length")
         return out + ["review"]
 
     def payload(self) -> dict:
@@ -377,20 +394,27 @@ class SetupScreen(ShopScreen):
                 "indexing": index_phrase(m) if m is not None else None,
                 "indexing_method": m.key if m is not None else None,
                 "between_centres": self.held, "relief": self.relief,
-                "for_thread": spec.designation, "starts": spec.starts}
+                "for_thread": spec.designation, "starts": spec.starts,
+                **({"taper": self.taper()[0]} if is_tapered(spec) else {})}
+
+    def taper(self) -> tuple[dict | None, str]:
+        """Return (the set-up's ``taper`` value, '') or (None, what to do)."""
+        return taper_value(self.app, self.taper_method, self.held, self.work_length)
 
     def recorded(self) -> bool:
         """Return True when the set-up in force is what the screen shows."""
         if self.train() is None or self.held is None or self.relief is None:
             return False
         rec = self.app.setup_values()
-        return same_values({k: rec.get(k) for k in SETUP_KEYS}, self.payload())
+        payload = self.payload()
+        return same_values({k: rec.get(k) for k in SETUP_KEYS if k in payload}, payload)
 
     # -- drawing -------------------------------------------------------------------------------
     def show(self) -> None:
         spec = self.app.spec
         summary = self.query_one("#summary", Static)
         choices = self.query_one("#choices", ChoiceList)
+        self.query_one("#length").display = False
         for wid in ("#question", "#header", "#detail", "#caution", "#others"):
             self.put(wid, "")
         if spec is None:
@@ -446,6 +470,8 @@ class SetupScreen(ShopScreen):
         held = {None: "? (not chosen yet)", False: "in a chuck", True: "between centres"}[self.held]
         runout = {None: "?", True: "relief groove", False: "to a mark (no relief)"}[self.relief]
         line("Work", f"{held} · run-out: {runout}")
+        if is_tapered(self.app.spec):
+            line("Taper", taper_summary(self.taper()[0], self.app.shop.display_units))
         if self.app.spec.starts > 1 and t is not None:
             m = self.method()
             line("Indexing", index_phrase(m) if m else "no method works here (see below)")
@@ -511,11 +537,33 @@ class SetupScreen(ShopScreen):
         if others:
             self.put("#others", f"Not here: {others}.")
 
+    def show_taper(self, choices, steps) -> None:
+        items, words = taper_options(self.app, self.held, self.work_length)
+        keys_ = [k for _, k in items]
+        self.set_list(choices, TAPER_QUESTION, items,
+                      keys_.index(self.taper_method) if self.taper_method in keys_ else None,
+                      steps)
+        text, refused = words.get(self.taper_method or "set_over")
+        self.put("#detail", Text(text, style="bold" if refused else ""))
+
+    def show_length(self, choices, steps) -> None:
+        choices.display = False
+        self.put("#question", f"Question {self.step + 1} of {len(steps) - 1}: {LENGTH_QUESTION}")
+        entry = self.query_one("#length", LengthEntry)
+        entry.prompt = f"work length [{self.app.shop.display_units}]: "
+        entry.display = True
+        entry.focus()
+        value, _why = self.taper()
+        self.put("#detail", value["text"] if value else
+                 "Between the centres' points; the set-over is worked out from it.")
+
     def show_review(self, choices, steps) -> None:
         choices.display = False
         missing = [words for value, words in ((self.held, "how the work is held"),
                                               (self.relief, "where the tool runs out"))
                    if value is None]
+        if is_tapered(self.app.spec) and self.taper()[0] is None:
+            missing.append("how the taper is made")
         if missing:
             self.put("#question", "Still to answer: " + " and ".join(missing))
             self.put("#detail", "- goes back to the questions.")
@@ -539,11 +587,19 @@ class SetupScreen(ShopScreen):
             self.relief = value
         elif step == "indexing":
             self.method_key = value
+        elif step == "taper":
+            self.taper_method = value
 
     @on(PickList.Picked, "#choices")
     def picked(self, event: PickList.Picked) -> None:
         self.answer(event.value)
         self.say("")
+        if self.steps()[self.step] == "taper" and event.value != "set_over":
+            value, why = self.taper()
+            if value is None:           # refused here: say why in place, stay on the question
+                self.show()
+                self.say(why, error=True)
+                return
         self.step += 1
         self.show()
 
@@ -553,6 +609,30 @@ class SetupScreen(ShopScreen):
         if 0 <= event.index < len(items):
             self.answer(items[event.index][1])
             self.show()
+
+    @on(KeypadEntry.Submitted, "#length")
+    def length_typed(self, event: KeypadEntry.Submitted) -> None:
+        """The work's length between centres: take it, show the set-over or why not."""
+        from shopterm.units import parse_length
+        event.stop()
+        try:
+            mm = parse_length(event.value, self.app.shop.display_units)
+            if mm <= 0:
+                raise InvalidEntry("The work's length is greater than zero: type it again.")
+        except ShoptermError as exc:
+            self.say(str(exc), error=True)      # the text stays in the entry to correct
+            return
+        old, self.work_length = self.work_length, mm
+        value, why = self.taper()
+        if value is None:
+            self.work_length = old if old is not None else mm
+            self.show()
+            self.say(why, error=True)
+            return
+        event.entry.clear()
+        self.step += 1
+        self.show()
+        self.say(value["text"])
 
     def action_forward(self) -> None:
         if self.app.spec is None or self.found is None:
@@ -596,6 +676,12 @@ class SetupScreen(ShopScreen):
                 self.show()
                 self.say(f"Say {words} first: pick with a digit.", error=True)
                 return
+        if is_tapered(self.app.spec) and self.taper()[0] is None:
+            want = "length" if self.taper_method == "set_over" and self.held else "taper"
+            self.step = self.steps().index(want)
+            self.show()
+            self.say(self.taper()[1], error=True)
+            return
         if self.app.record_setup(self.payload()) is None:
             self.say("The set-up was not recorded (see the note); your answers are kept.",
                      error=True)

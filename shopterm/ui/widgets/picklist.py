@@ -72,6 +72,7 @@ class PickList(Widget, can_focus=True):
         self.title = title
         self.page = 0
         self.cursor = 0
+        self.clear_cached_dimensions()      # else a longer list keeps the old list's height
         self.refresh(layout=True)
 
     @property
