@@ -19,6 +19,7 @@ from shopterm.cutting.infeed import METHODS, infeed_method
 from shopterm.cutting.pickup import DialZero, new_zero
 from shopterm.cutting.plan import (PLAN_KINDS, Plan, dial_reading, make_plan, pass_view,
                                    replan)
+from shopterm.cutting.taper_thread import tapered_tool_depth
 from shopterm.cutting.tool import ToolCheck, ToolDepth, check_tool, tool_depth
 from shopterm.errors import InvalidEntry
 from shopterm.lathe.machine import Dial, ToolTip
@@ -28,7 +29,7 @@ from shopterm.units import parse_number
 #: Set-up keys that change the plan; a change to one of them after passes were cut replans
 #: the rest of the cut from the depth reached.
 CUT_KEYS = ("method", "compound_angle_deg", "tool_kind", "tool_size_mm", "blank_od_mm", "plan",
-            "passes", "spring_passes", "aim_pd_mm")
+            "passes", "spring_passes", "aim_pd_mm", "blank_at_mm")
 #: What the preparation must have before the first pass.
 PREPARED_KEYS = ("blank_od_mm", "method", "plan", "passes", "tool_kind", "tool_size_mm")
 #: Why the thread is picked up again: (record's reason, what it means).
@@ -155,15 +156,24 @@ def prepare(spec, lathe, values: dict):
         what = "bore" if not spec.is_external else "blank's OD"
         raise InvalidEntry(f"Measure the {what} and enter it (1).")
     tip = ToolTip(values["tool_kind"], float(values["tool_size_mm"]))
-    aim = values.get("aim_pd_mm")
-    depth = tool_depth(lim, float(values["blank_od_mm"]), tip, aim)
+    depth = turned_depth(lim, values, float(values["blank_od_mm"]), tip)
     method = infeed_method(values["method"], spec.form.angle_deg, lathe=lathe,
                            internal=not spec.is_external, hand=spec.hand)
     plan = make_plan(depth.total_radial, method, lathe=lathe, kind=values["plan"],
                      passes=values.get("passes"), spring=int(values.get("spring_passes", 1)),
                      internal=not spec.is_external)
-    check = check_tool(lim, tip, depth.aim_pd, turned_diameter=float(values["blank_od_mm"]))
+    check = check_tool(lim, tip, depth.aim_pd, turned_diameter=depth.turned_diameter)
     return lim, depth, method, plan, check
+
+
+def turned_depth(lim, values: dict, measured: float, tip: ToolTip) -> ToolDepth:
+    """Return the total infeed from a ``measured`` [mm] turned size, with the preparation's
+    ``aim_pd_mm``; a tapered thread's blank is measured ``blank_at_mm`` [mm] from the small end
+    (internal: in from the face; default 0) and planned at the gauge plane."""
+    aim = values.get("aim_pd_mm")
+    if lim.taper is not None:
+        return tapered_tool_depth(lim, measured, float(values.get("blank_at_mm") or 0.0), tip, aim)
+    return tool_depth(lim, measured, tip, aim)
 
 
 def prepared_setup(spec, lathe, values: dict) -> dict:
@@ -177,7 +187,9 @@ def prepared_setup(spec, lathe, values: dict) -> dict:
             "compound_angle_set": method.scale_reading_deg, "tool_kind": values["tool_kind"],
             "tool_size_mm": float(values["tool_size_mm"]),
             "blank_od_mm": float(values["blank_od_mm"]), "plan": plan.kind,
-            "passes": plan.count, "spring_passes": len(plan.spring_passes)}
+            "passes": plan.count, "spring_passes": len(plan.spring_passes),
+            **({"blank_at_mm": float(values.get("blank_at_mm") or 0.0)}
+               if _lim.taper is not None else {})}
 
 
 def is_prepared(values: dict) -> bool:

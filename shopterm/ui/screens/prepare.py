@@ -13,15 +13,16 @@ from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.widgets import Static
 
-from shopterm.cutting.cut_state import (default_draft, is_prepared, prepare, prepared_setup)
+from shopterm.cutting.cut_state import (default_draft, is_prepared, prepare, prepared_setup,
+                                        turned_depth)
 from shopterm.cutting.infeed import METHODS, infeed_method
 from shopterm.cutting.plan import BORING_CAUTIONS, PLAN_KINDS, SETUP_CAUTIONS, bore_to_prepare
-from shopterm.cutting.tool import tool_depth
 from shopterm.errors import InvalidEntry, ShoptermError
 from shopterm.lathe.machine import ToolTip
 from shopterm.standards import limits as thread_limits
 from shopterm.ui import keys
 from shopterm.ui.screens.cutview import METHOD_NAMES, CutScreen, LengthEntry
+from shopterm.ui.screens.taperview import blank_entry, is_tapered
 from shopterm.ui.widgets.entry import KeypadEntry
 from shopterm.ui.widgets.picklist import PickList
 from shopterm.units import parse_length, parse_number
@@ -137,7 +138,9 @@ class PrepareScreen(CutScreen):
         self.query_one("#head", Static).update(head)
         od = self.query_one("#od", LengthEntry)
         od.prompt = f"1 {'bore' if internal else 'blank OD'} measured [{u}]: "
-        if internal:
+        if is_tapered(spec):
+            od.prompt, hint, _text = blank_entry(lim, u, self.L)
+        elif internal:
             bore = bore_to_prepare(lim)
             hint = f"bore {self.L(bore.minor_min)} to {self.L(bore.minor_max)}"
         else:
@@ -223,8 +226,11 @@ class PrepareScreen(CutScreen):
     def caution_items(self, plan, internal: bool) -> list[str]:
         items = list(plan.cautions if plan is not None else
                      SETUP_CAUTIONS + (BORING_CAUTIONS if internal else ()))
-        if internal:
-            items.insert(0, bore_to_prepare(thread_limits(self.app.spec)).text)
+        lim = thread_limits(self.app.spec)
+        if is_tapered(self.app.spec):
+            items.insert(0, blank_entry(lim, self.unit, self.L)[2])
+        elif internal:
+            items.insert(0, bore_to_prepare(lim).text)
         return items
 
     # -- keys --------------------------------------------------------------------------------
@@ -295,8 +301,8 @@ class PrepareScreen(CutScreen):
         d = self.draft
         try:
             mm = parse_length(text, self.unit)
-            tool_depth(thread_limits(self.app.spec), mm,
-                       ToolTip(d["tool_kind"], float(d["tool_size_mm"])), d.get("aim_pd_mm"))
+            turned_depth(thread_limits(self.app.spec), d, mm,
+                         ToolTip(d["tool_kind"], float(d["tool_size_mm"])))
         except ShoptermError as exc:
             self.say(str(exc), error=True)          # the text stays in the entry to correct
             return

@@ -121,3 +121,15 @@ def taper_summary(value: dict | None, unit: str) -> str:
         return (f"tailstock set over {_f(value['set_over_mm'], value.get('scale_unit', unit))} "
                 f"{way} the tool, work {_f(value['work_length_mm'], unit)}")
     return f"taper attachment at {value['shown']}"
+
+
+# ---- prepare: where to measure the blank and what it should read --------------------------------
+
+def blank_entry(lim, unit: str, fmt) -> tuple[str, str, str]:
+    """Return (entry prompt, hint beside it, the step's text) for a tapered thread's blank:
+    measured at the small end (internal: the bore at the face), from ``taper_blank``.
+    fmt: the screen's length formatter."""
+    from shopterm.cutting.taper_thread import taper_blank
+    b = taper_blank(lim, unit)
+    where = "bore at the face" if b.internal else "blank OD at small end"
+    return (f"1 {where} [{unit}]: ", f"should read {fmt(b.at_end)}", b.text)
