@@ -210,6 +210,19 @@ def _as_read(square: float, wire: float, factor: float) -> float:
     return (square - wire) * factor + wire
 
 
+def wire_band_at(limits: Limits, wire: float, distance: float) -> tuple[float, float]:
+    """Return what the micrometer should read over ``wire`` [mm] at ``distance`` [mm] from the
+    small end at the band's top and bottom (PD max, PD min there), anvil on two wires as
+    ``measure_tapered`` reads it. References: ``wires.band_over_wires``; this module's docstring.
+    """
+    from shopterm.cutting.wires import band_over_wires
+    at = limits_at(limits, distance)
+    spec = limits.spec
+    band = band_over_wires(spec.form, spec.pitch, spec.lead, at.pd_max, at.pd_min, wire)
+    factor = math.cos(math.radians(taper_of(limits).half_angle_deg))
+    return _as_read(band.at_pd_max, wire, factor), _as_read(band.at_pd_min, wire, factor)
+
+
 def measure_tapered(limits: Limits, wire: float, readings: Sequence[float], distance: float,
                     *, aim_pd: float | None = None, **kw) -> TaperReading:
     """Return what readings over wires at ``distance`` [mm] from the small end say.

@@ -123,7 +123,8 @@ KINDS: dict[str, EventKind] = {k.name: k for k in (
     _kind("tool_pickup", "tool reground / thread picked up",
           {"reason": _choice("reground", "picked_up")},
           {"radial_cum_mm": _length, "dial": _dial, "note": _opt_text}),
-    _kind("note", "note", {"text": _text}),
+    # A note; a hand-tight engagement check of a tapered thread carries ``hand_tight``.
+    _kind("note", "note", {"text": _text}, {"hand_tight": _object}),
     _kind("screen", "screen", {"name": _text}, {"context": _object}, undoable=False),
     _kind("job_finished", "job finished", {}, {"note": _opt_text}),
     _kind("job_archived", "job archived", {}),

@@ -11,6 +11,7 @@ REGISTRY: dict[str, tuple[str, str, str]] = {
     "wires": ("shopterm.ui.screens.wires", "WiresScreen", "Wire reading"),
     "wirechoice": ("shopterm.ui.screens.wirechoice", "WireChoiceScreen", "Choose the wire"),
     "fitcheck": ("shopterm.ui.screens.fitcheck", "FitCheckScreen", "Fit check"),
+    "handtight": ("shopterm.ui.screens.handtight", "HandTightScreen", "Hand-tight check"),
     "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
     "identify": ("shopterm.ui.screens.identify", "IdentifyScreen", "What thread is this?"),
     "jobs": ("shopterm.ui.screens.jobs", "JobsScreen", "Jobs and export"),

@@ -14,6 +14,7 @@ from textual.widgets import Static
 
 from shopterm.errors import ShoptermError
 from shopterm.ui.screens.base import ShopScreen
+from shopterm.ui.screens.taperview import is_tapered
 from shopterm.ui.screens.wireview import CHART_ROWS
 from shopterm.ui.widgets.picklist import PickList
 
@@ -80,7 +81,9 @@ class FitCheckScreen(ShopScreen):
                                                                 .message))
         picks.display = True
         if self.against is None:
-            picks.set_items([(label, key) for key, label in FIT_CHECKS],
+            extra = ([("Plug gauge stand-off (hand-tight check of the taper)", "hand_tight")]
+                     if is_tapered(spec) else [])
+            picks.set_items([(label, key) for key, label in FIT_CHECKS] + extra,
                             "Record a fit check against:")
         else:
             picks.set_items([(msg.split(":")[0], key)
@@ -97,6 +100,9 @@ class FitCheckScreen(ShopScreen):
 
     def on_pick_list_picked(self, event: PickList.Picked) -> None:
         from shopterm.cutting.remaining import FIT_CHECKS, record_fit_check
+        if event.value == "hand_tight":
+            self.app.goto("handtight")
+            return
         if self.against is None:
             self.against = event.value
             self.redraw()

@@ -133,3 +133,89 @@ def blank_entry(lim, unit: str, fmt) -> tuple[str, str, str]:
     b = taper_blank(lim, unit)
     where = "bore at the face" if b.internal else "blank OD at small end"
     return (f"1 {where} [{unit}]: ", f"should read {fmt(b.at_end)}", b.text)
+
+
+# ---- wires: readings at a stated plane -------------------------------------------------------------
+
+def default_plane(state, lim) -> float:
+    """Return the plane [mm from the small end] a reading is taken at unless another is typed:
+    the last reading's of this job, else the gauge plane."""
+    from shopterm.cutting.taper_thread import gauge_plane_at
+    for r in reversed(state.readings if state is not None else ()):
+        d = r.payload.get("distance_mm")
+        if d is not None:
+            return float(d)
+    return gauge_plane_at(lim)
+
+
+def plane_words(lim, distance: float, fmt) -> str:
+    """Return where a reading is taken: ``8.20 mm from the small end (the gauge plane)``."""
+    from shopterm.cutting.taper_thread import gauge_plane_at, measured_from
+    gauge = abs(distance - gauge_plane_at(lim)) < 1e-6
+    return f"{fmt(distance)} from {measured_from(lim)}" + (" (the gauge plane)" if gauge else "")
+
+
+def wires_head(spec, lim, wire: float, wire_text: str, distance: float, fmt, unit: str):
+    """Return the wire screen's head for a tapered thread: the plane, and the reading over the
+    wires there at the band's top and bottom."""
+    from rich.text import Text
+    from shopterm.cutting.taper_thread import limits_at, wire_band_at
+    top, bottom = wire_band_at(lim, wire, distance)
+    at = limits_at(lim, distance)
+    head = Text()
+    head.append(spec.designation, style="bold")
+    head.append(f"  wire {wire_text}")
+    head.append(f"\nmeasured at {plane_words(lim, distance, fmt)}", style="bold")
+    head.append(f"\nover wires there {fmt(top, False)} (PD {fmt(at.pd_max, False)}) to "
+                f"{fmt(bottom, False)} (PD {fmt(at.pd_min, False)}) {unit}")
+    head.append("\nEnter on an empty entry: the plane, a hand-tight check, another wire",
+                style="dim")
+    return head
+
+
+def reading_payload(tr) -> dict:
+    """Return what a tapered reading adds to (and changes in) the ``wire_reading`` payload: the
+    plane, the PD there, and the PDs at the gauge plane (what the cut is planned at)."""
+    m = tr.measurement
+    shift = tr.shift
+    return {"distance_mm": tr.distance, "pd_at_plane_mm": tr.pd_at_plane,
+            "pd_mm": tr.pd_at_gauge_plane, "pd_max_mm": m.pd_max + shift,
+            "pd_min_mm": m.pd_min + shift, "aim_pd_mm": tr.aim_pd_at_gauge_plane,
+            "reading_factor": tr.reading_factor}
+
+
+PLANE_QUESTION = "Where is the single wire, from the small end?"
+TAPER_OPTIONS = (("distance of the measuring plane from the small end", "plane"),
+                 ("hand-tight check (ring gauge or the mating fitting)", "hand_tight"),
+                 ("another wire", "wire"))
+
+
+def ask_plane(app, lim, now: float, then) -> None:
+    """Ask the measuring plane's distance from the small end by keypad; ``then(mm or None)``."""
+    from shopterm.cutting.taper_thread import (gauge_plane_at, measured_from,
+                                               shift_to_gauge_plane, thread_length)
+    from shopterm.ui.screens.taperask import NumberModal
+    from shopterm.units import format_length, parse_length
+    unit = app.shop.display_units
+
+    def f(mm: float) -> str:
+        return format_length(mm, unit, 0.0001 if unit == "in" else 0.01)
+
+    def check(text: str) -> float:
+        mm = parse_length(text, unit)
+        shift_to_gauge_plane(lim, mm)            # raises, saying what to do, off the thread
+        return mm
+
+    hint = (f"Now {f(now)}. The gauge plane is {f(gauge_plane_at(lim))} from "
+            f"{measured_from(lim)}; the thread is {f(thread_length(lim.taper))} long.")
+    app.push_screen(NumberModal(PLANE_QUESTION, f"distance [{unit}]: ", hint, check), then)
+
+
+def set_words(tr, lim, fmt) -> tuple[float, str]:
+    """Return (the mean of the readings as typed [mm], what to add after the set's PD): a
+    tapered reading's PD is at its plane; away from the gauge plane, say the PD there too."""
+    from shopterm.cutting.taper_thread import gauge_plane_at
+    mean = sum(tr.typed) / len(tr.typed)
+    if abs(tr.distance - gauge_plane_at(lim)) < 1e-6:
+        return mean, " (gauge plane)"
+    return mean, f" ({fmt(tr.pd_at_gauge_plane, False)} at gauge plane)"

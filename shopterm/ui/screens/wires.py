@@ -28,6 +28,7 @@ from shopterm.cutting.reading_sets import ReadingSet, current_set, cuts, reading
 from shopterm.errors import InvalidEntry, ShoptermError
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
+from shopterm.ui.screens import taperview
 from shopterm.ui.screens.wireview import CHART_ROWS, band_picture, chart_rows, fmt, wire_in_use
 from shopterm.ui.widgets.entry import KeypadEntry
 
@@ -72,6 +73,8 @@ class WiresScreen(ShopScreen):
     def __init__(self) -> None:
         super().__init__()
         self.draft = ""            # the entry's text not yet confirmed (kept over a re-compose)
+        self.plane: float | None = None   # tapered: the measuring plane [mm from the small end]
+        self.taper_reading = None         # tapered: the last TaperReading measured
 
     def compose_body(self) -> ComposeResult:
         # What is above and below the entry sits in containers of its own: a key typed into the
@@ -136,7 +139,7 @@ class WiresScreen(ShopScreen):
         """Return the thread's limits; a thread with no class is measured to its basic PD."""
         from shopterm.standards import limits
         lim = limits(self.app.spec)
-        if self.app.spec.tol_class is None:
+        if self.app.spec.tol_class is None and self.app.spec.family != "pipe":
             lim = replace(lim, pd_max=lim.basic_pd, pd_min=lim.basic_pd)
         return lim
 
@@ -151,9 +154,26 @@ class WiresScreen(ShopScreen):
         angle = values.get("compound_angle_deg")
         return slide, (float(angle) if angle is not None else None)
 
+    def tapered(self) -> bool:
+        return taperview.is_tapered(self.app.spec)
+
+    def distance(self) -> float | None:
+        """Return the measuring plane of a tapered thread [mm from the small end], else None."""
+        if not self.tapered():
+            return None
+        if self.plane is None:
+            self.plane = taperview.default_plane(self.app.state, self.limits())
+        return self.plane
+
     def measure(self, readings: list[float], wire: float):
         """Return the core's Measurement of ``readings`` [mm] over ``wire`` [mm] (raises if refused)."""
         from shopterm.cutting.remaining import measure
+        if self.tapered():     # at the plane typed: the core's measure_tapered, never measure
+            from shopterm.cutting.taper_thread import measure_tapered
+
+            def measure(lim, wire, readings, **kw):
+                self.taper_reading = measure_tapered(lim, wire, readings, self.distance(), **kw)
+                return self.taper_reading.measurement
         _slide, angle = self.feed_slide()
         aim = self.app.setup_values().get("aim_pd_mm")
         kw = dict(lathe=self.app.lathe, compound_angle_deg=angle,
@@ -197,12 +217,15 @@ class WiresScreen(ShopScreen):
         band = band_over_wires(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min, wire)
         u = self.unit
         cls = spec.tol_class or "basic"
-        head = Text()
-        head.append(f"{spec.designation}", style="bold")
-        head.append(f"  wire {wire_text}")
-        head.append(f"\nover wires: {self.fmt(band.at_pd_max, False)} (PD max "
-                    f"{self.fmt(lim.pd_max, False)}) to {self.fmt(band.at_pd_min, False)} "
-                    f"(PD min {self.fmt(lim.pd_min, False)}) {u}, {cls}")
+        if self.tapered():
+            head = taperview.wires_head(spec, lim, wire, wire_text, self.distance(), self.fmt, u)
+        else:
+            head = Text()
+            head.append(f"{spec.designation}", style="bold")
+            head.append(f"  wire {wire_text}")
+            head.append(f"\nover wires: {self.fmt(band.at_pd_max, False)} (PD max "
+                        f"{self.fmt(lim.pd_max, False)}) to {self.fmt(band.at_pd_min, False)} "
+                        f"(PD min {self.fmt(lim.pd_min, False)}) {u}, {cls}")
         self.query_one("#wires-head", Static).update(head)
         entry = self.query_one("#reading", KeypadEntry)
         entry.prompt = f"Reading over wires [{u}]: "
@@ -211,7 +234,7 @@ class WiresScreen(ShopScreen):
             self.say(problem, error=True)
         self.query_one("#caution", Static).update(MEASURE_CAUTION)
         self.show_parts(entry=True, feed=True)
-        current = current_set(state, wire)
+        current = current_set(state, wire, self.distance())
         if current is None:
             self.draw_history(lim, CHART_ROWS)
             self.draw_no_reading(state)
@@ -244,14 +267,17 @@ class WiresScreen(ShopScreen):
         n = len(r.values)
         set_text = Text("before pass 1: " if current.after_seq == 0
                         else f"after {current.label}: ")
+        mean, where = r.mean, ""
+        if self.tapered():        # readings as typed; the PD is at the plane measured
+            mean, where = taperview.set_words(self.taper_reading, self.limits(), self.fmt)
         if n == 1:
-            set_text.append(f"1 reading {self.fmt(r.mean)}")
+            set_text.append(f"1 reading {self.fmt(mean)}")
         else:
-            set_text.append(f"{n} readings: mean {self.fmt(r.mean, False)}, spread "
+            set_text.append(f"{n} readings: mean {self.fmt(mean, False)}, spread "
                             f"{self.fmt(r.spread)}")
             if not r.steady:
                 set_text.append(" TOO WIDE", style="bold reverse")
-        set_text.append(f" → PD {self.fmt(m.pitch_diameter)}")
+        set_text.append(f" → PD {self.fmt(m.pitch_diameter)}{where}")
         self.query_one("#set-line", Static).update(set_text)
 
         feed = m.feed_aim
@@ -348,7 +374,10 @@ class WiresScreen(ShopScreen):
         if self.app.spec is None or not self.app.spec.is_external:
             return
         if not text:
-            self.app.goto("wirechoice")
+            if self.tapered():
+                self.ask_taper_option()
+            else:
+                self.app.goto("wirechoice")
             return
         self.reading_typed(text)
 
@@ -360,6 +389,9 @@ class WiresScreen(ShopScreen):
             m = parse_length(text, self.unit)
             lim = self.limits()
             wire, _, _ = self.wire()
+            if self.tapered():
+                from shopterm.cutting.taper_thread import limits_at
+                lim = limits_at(lim, self.distance())
             check_reading(m, spec.form, spec.pitch, spec.lead, lim.basic_major,
                           lim.basic_minor, wire, self.unit)
         except ReadingSlip as slip:
@@ -395,7 +427,7 @@ class WiresScreen(ShopScreen):
         """Record one reading [mm]; show it as taken only once the record has it."""
         state = self.app.state
         wire, _, _ = self.wire()
-        current = current_set(state, wire)
+        current = current_set(state, wire, self.distance())
         values = [r.measured_mm for r in current.readings] if current else []
         try:
             result = self.measure(values + [m], wire)
@@ -419,6 +451,8 @@ class WiresScreen(ShopScreen):
         }
         if result.state == "oversize" and setting is not None:
             payload["divisions"] = setting.divisions
+        if self.tapered():
+            payload.update(taperview.reading_payload(self.taper_reading))
         if self.app.record("wire_reading", payload) is None:
             self.say("The reading was not recorded (see the message above); it is still in "
                      "the entry: Enter to try again.", error=True)
@@ -428,9 +462,32 @@ class WiresScreen(ShopScreen):
         self.say(f"Reading {self.fmt(m)} taken" + (f" ({n} in this set)." if n > 1 else "."))
         self.redraw()
 
+    def ask_taper_option(self) -> None:
+        """Tapered thread, Enter on an empty entry: the measuring plane, a hand-tight check or
+        another wire."""
+        from shopterm.ui.screens.taperask import PickModal
+
+        def chosen(what) -> None:
+            if what == "plane":
+                taperview.ask_plane(self.app, self.limits(), self.distance(), self.plane_typed)
+            elif what == "hand_tight":
+                self.app.goto("handtight")
+            elif what == "wire":
+                self.app.goto("wirechoice")
+
+        self.app.push_screen(PickModal("Tapered thread:", list(taperview.TAPER_OPTIONS)), chosen)
+
+    def plane_typed(self, mm: float | None) -> None:
+        if mm is not None:
+            self.plane = mm
+            self.say("Readings now at " + taperview.plane_words(self.limits(), mm, self.fmt)
+                     + ".")
+        self.redraw()
+
     # -- keys ----------------------------------------------------------------------------------
     def key_hints(self) -> list[tuple[str, str]]:
-        return [("Enter", "take reading · empty: wire"), ("/", "undo"), ("-", "counter"),
+        empty = "more" if self.tapered() else "wire"
+        return [("Enter", f"take reading · empty: {empty}"), ("/", "undo"), ("-", "counter"),
                 ("*", "menu"), ("F1", "help")]
 
     def action_back(self) -> None:
