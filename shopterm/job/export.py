@@ -72,6 +72,16 @@ def recheck_limits(designation: str | None, thread_kind: str | None):
         return None
 
 
+def thread_cautions(designation: str | None, thread_kind: str | None) -> tuple[str, ...]:
+    """Return the standards' cautions for the job's thread (pipe threads: the pressure-fitting
+    caution), () when there are none or the designation does not parse."""
+    lim = recheck_limits(designation, thread_kind)
+    if lim is None:
+        return ()
+    from shopterm.standards import cautions
+    return cautions(lim.spec)
+
+
 def _undone_by(state: JobState) -> dict[int, int]:
     return {e.payload["target"]: e.seq for e in state.events if e.kind == "undo"}
 
@@ -128,7 +138,8 @@ def to_dict(events: Sequence[Event], status: str | None = None) -> dict:
         "format": "shopterm-job", "format_version": 1,
         "job": {"id": s.job_id, "title": s.title or s.designation, "created": s.created_at,
                 "status": status or s.status, "designation": s.designation,
-                "thread_kind": s.thread_kind, "units": s.units},
+                "thread_kind": s.thread_kind, "units": s.units,
+                "cautions": list(thread_cautions(s.current_designation, s.thread_kind))},
         "thread": s.thread.values if s.thread else None,
         "setup": s.setup.values if s.setup else None,
         "limits_now": None if lim is None else {
@@ -214,6 +225,8 @@ def job_card(events: Sequence[Event], status: str | None = None) -> str:
     add(f"Thread      {s.current_designation}  ({s.thread_kind})")
     if s.thread and s.thread.values.get("tol_class"):
         add(f"Class       {s.thread.values['tol_class']}")
+    for caution in thread_cautions(s.current_designation, s.thread_kind):
+        add(f"CAUTION     {caution}")
     add(f"Started     {_time(s.created_at or '', True)}    status: {status or s.status}")
     if s.finished:
         add(f"Finished    {_time(s.event(s.finished_seq).at, True)}")
@@ -241,7 +254,11 @@ def job_card(events: Sequence[Event], status: str | None = None) -> str:
     add(f"Wire readings ({len(s.readings)})")
     for r in s.readings:
         wire = f", wire {_len(r.wire_mm, unit)}" if r.wire_mm else ""
-        add(f"  {_time(r.at):<8}  over wires {_len(r.measured_mm, unit)}{wire}, "
+        plane = r.payload.get("distance_mm")
+        where = "" if plane is None else (f" at {_len(plane, unit)} from the end, PD there "
+                                          f"{_len(r.payload.get('pd_at_plane_mm'), unit)}; "
+                                          "at the gauge plane")
+        add(f"  {_time(r.at):<8}  over wires {_len(r.measured_mm, unit)}{wire}{where}, "
             f"PD {_len(r.pd_mm, unit)}: {r.state}")
     add("")
     last = s.last_reading

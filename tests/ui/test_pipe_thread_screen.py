@@ -17,15 +17,18 @@ async def test_walk_to_r_half_shows_gauge_plane_and_caution(make_app):
         picks = app.screen.query_one("#choices")
         labels = [lbl for lbl, _ in picks.page_items()]
         assert len(labels) <= 9                       # each family picked by one digit
+        for _ in range(picks.pages):                  # favourites first: the family may be
+            if walk.group("pipe").title in labels:    # on a later page (0 turns it)
+                break
+            await pilot.press("0")
+            labels = [lbl for lbl, _ in picks.page_items()]
         await pilot.press(str(labels.index(walk.group("pipe").title) + 1))
         labels = [lbl for lbl, _ in picks.page_items()]
         await pilot.press(str(labels.index("R") + 1))
         labels = [lbl for lbl, _ in picks.page_items()]
         await pilot.press(str(labels.index("1/2") + 1))
-        await pilot.press("1")                         # external
-        assert "standard tolerance" in screen_text(app)
-        await pilot.press("1")
-        text = screen_text(app)
+        text = screen_text(app)                        # the thread, before "use it"
+        assert "standard tolerance" in text
         assert "R1/2" in text and "gauge plane" in text and CAUTION in text
         assert "19.906" in text and "19.681" in text   # ISO 7-1: 19.793 ± 1.8/16 (from memory)
 

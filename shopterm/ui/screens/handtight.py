@@ -121,9 +121,8 @@ class HandTightScreen(ShopScreen):
         unit = self.app.shop.display_units
         from shopterm.units import format_length
         text = Text(spec.designation, style="bold")
-        text.append(f"  hand-tight: {gauge / spec.pitch:.1f} turns expected "
-                    f"({format_length(gauge, unit)} gauge length), flush within ± "
-                    f"{format_length(taper.gauge_plane_tolerance, unit)}")
+        text.append(f"  by hand: {gauge / spec.pitch:.1f} turns expected (gauge length "
+                    f"{format_length(gauge, unit)}), ± {format_length(taper.gauge_plane_tolerance, unit)}")
         head.update(text)
         picks.display = self.how is None
         entry.display = self.how is not None
@@ -191,8 +190,7 @@ class HandTightScreen(ShopScreen):
             return
         event.entry.clear()
         self.show_check(check, slide)
-        self.say("Recorded. Another check: type it; - changes what it was tried with; "
-                 "+ goes to the pass counter.")
+        self.say("Recorded. Type another check, or + for the pass counter.")
 
     def key_hints(self) -> list[tuple[str, str]]:
         return [("1-9", "pick"), ("Enter", "take it"), ("-", "back"), ("+", "counter"),
