@@ -76,9 +76,6 @@ class HandTightScreen(ShopScreen):
                      "out and hands clear. A gauge check is not a pressure test.",
                      id="caution", classes="caution")
 
-    def route(self) -> str:
-        return self.SCREEN_NAME if is_tapered(self.app.spec) else "wires"
-
     def on_mount(self) -> None:
         self.redraw()
 
@@ -89,8 +86,7 @@ class HandTightScreen(ShopScreen):
     def job_changed(self) -> None:
         self.against = self.how = None
         self.say("")
-        if not self.follow_route():
-            self.redraw()
+        self.redraw()
 
     def limits(self):
         from shopterm.standards import limits
@@ -111,7 +107,8 @@ class HandTightScreen(ShopScreen):
         picks = self.query_one("#hand-list", PickList)
         entry = self.query_one("#hand-entry", LengthEntry)
         if not is_tapered(spec):
-            head.update("A hand-tight check is for a tapered thread (R, Rc, NPT).")
+            head.update("A hand-tight check is for a tapered thread (R, Rc, NPT): - goes back "
+                        "to the wire screen.")
             picks.display = entry.display = False
             self.refresh_chrome()
             return
