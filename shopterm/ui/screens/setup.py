@@ -594,8 +594,8 @@ class SetupScreen(ShopScreen):
     def picked(self, event: PickList.Picked) -> None:
         self.answer(event.value)
         self.say("")
-        if self.steps()[self.step] == "taper" and event.value != "set_over":
-            value, why = self.taper()
+        if self.steps()[self.step] == "taper" and (event.value != "set_over" or not self.held):
+            value, why = self.taper()           # (set-over between centres: its length next)
             if value is None:           # refused here: say why in place, stay on the question
                 self.show()
                 self.say(why, error=True)
