@@ -4,7 +4,11 @@
 
 Each job names the thread, how it is chosen on the thread screen (a list of (heading, label)
 picks: the list walk, a favourite of the demo config), the starts, the display units and the
-blank's OD as typed. The set-up answers are the same for every job.
+blank's OD as typed. The set-up answers after the change gears are ``setup`` (work holding and
+run-out); a tapered thread adds how the taper is made (``taper``, with the work's length typed
+for a set-over) and the plane its wire readings are taken at (``plane_typed``, from the small
+end). An internal thread (``internal``) is made so on the thread screen and checked with a plug
+gauge instead of wires.
 """
 
 from __future__ import annotations
@@ -30,6 +34,18 @@ class KeypadJob:
     od_typed: str                               # the blank's OD as typed [display unit]
     band: tuple[float, float]                   # PD min, max [display unit]
     export_from_screen: bool
+    setup: tuple[tuple[str, str], ...] = ()     # (question, answer) after the gears; () = SETUP_ANSWERS
+    taper: tuple[str, str] | None = None        # (question, answer) how the taper is made
+    work_length_typed: str | None = None        # between centres, for a set-over [display unit]
+    plane_typed: str | None = None              # wire readings' plane from the small end
+    internal: bool = False
+    angle_deg: float = 60.0                     # the form's included angle (for the simulator)
+    taper_k: float = 0.0                        # taper on diameter (0: parallel)
+    gauge_plane_mm: float = 0.0                 # of a tapered thread, from the small end
+
+    @property
+    def setup_answers(self) -> tuple[tuple[str, str], ...]:
+        return self.setup or SETUP_ANSWERS
 
 
 M10_6G = (8.862, 8.994)        # ISO 965-2, M10x1.5-6g d2 min / max
@@ -40,10 +56,30 @@ M10_WALK = (("Thread family", "ISO metric"), ("Common sizes", "M10x1.5-6g"))
 #: 3/8-16 UNC-2A as a favourite of the demo config (sample_config.toml [favourites]).
 UNC_FAVOURITE = (("Thread family", "3/8-16 UNC-2A"),)
 
+R12_BAND = (19.681, 19.906)    # ISO 7-1 size 1/2: PD 19.793 ± T1/2 × 1/16 = ± 1.8/16 at the
+#                                gauge plane (from memory; computed band)
+G34_INTERNAL = (25.279, 25.421)  # ISO 228-1, G3/4 internal: D2 25.279, + TD2 0.142 (from memory)
+R12_GAUGE_LENGTH = 8.2         # ISO 7-1 table 1, size 1/2: gauge length [mm] (from memory)
+PIPE_TAPER = 1 / 16            # ISO 7-1: taper 1 in 16 on diameter (from memory)
+
+#: Pipe threads by the list walk: the family (on the list's second page), series, size.
+R12_WALK = (("Thread family", "Pipe threads: G, R, NPT"), ("Series", "R"), ("Size", "1/2"))
+G34_WALK = (("Thread family", "Pipe threads: G, R, NPT"), ("Series", "G"), ("Size", "3/4"))
+#: Between centres (for the set-over), running out into a relief groove.
+CENTRES = (("how is the work held?", "between centres (carrier and driving plate)"),
+           ("where does the tool run out", "into a relief groove (undercut)"))
+
 JOBS = (
     KeypadJob("M10x1.5-6g", "mm", M10_WALK, 1, "M10x1.5-6g", "9.95", M10_6G, True),
     KeypadJob("3/8-16 UNC-2A", "in", UNC_FAVOURITE, 1, "3/8-16 UNC-2A", "0.3730", UNC_2A, False),
     KeypadJob("M10x1.5 two starts", "mm", M10_WALK, 2, "M10", "9.95", M10_6G, False),
+    KeypadJob("R1/2 between centres", "mm", R12_WALK, 1, "R1/2", "20.45", R12_BAND, True,
+              setup=CENTRES, taper=("how is the taper made?",
+                     "set-over between centres (then the work's length)"),
+              work_length_typed="150", plane_typed="5", angle_deg=55.0, taper_k=PIPE_TAPER,
+              gauge_plane_mm=R12_GAUGE_LENGTH),
+    KeypadJob("G3/4 internal", "mm", G34_WALK, 1, "G3/4", "24.4", G34_INTERNAL, False,
+              internal=True, angle_deg=55.0),
 )
 
 #: The set-up questions after the change gears (the best train, "1"), with the answer picked.

@@ -25,6 +25,17 @@ The model:
   model, so the two agree to a few tenths of a micrometre, not exactly (that is the point: the
   readings do not come from the code under test).
 
+* A tapered thread (``TaperSim``): the blank is turned to the taper (k on diameter) and measured
+  at one plane; the set-over or attachment moves the tool square to the axis, so every plane is
+  cut to the same depth and the PD at a plane z from the small end is the PD at the measured
+  plane plus k (z - z_measured). Over wires at z: the two wires of one side sit a pitch apart
+  on radii k P / 2 apart, so the anvil tangent to both lies at the half-angle alpha = atan(k/2)
+  to the axis; the spindle face is parallel to it, and the single wire at the plane between
+  them is (M_square - W) cos alpha + W from the anvil's face (M_square: the reading square to
+  the axis at z, the published relation above). Derived here from that geometry.
+* An internal thread (``internal=True``): the bore grows by the depth cut, so
+  PD = bore + 2 (depth + beyond) - P / (2 tan a).
+
 References: ISO 68-1 basic profile (H = 0.866025P); NBS Handbook H28, three-wire method (three-wire
 relation, H28 lead-angle term); compound travel = radial depth / cos angle, from the geometry.
 """
@@ -75,15 +86,23 @@ class ThreadSim:
         self.cuts.append(radial_mm)
         self.depth_mm = max(self.depth_mm, radial_mm)
 
+    internal: bool = False                 # a bore (od_mm is the bore) cut by a boring tool
+
     def pitch_diameter(self) -> float:
         """Return the pitch diameter the work has now [mm] (see the module's model)."""
         a = self.half_angle
+        if self.internal:
+            return (self.od_mm + 2 * (self.depth_mm + self.apex_beyond_tip())
+                    - self.pitch_mm / (2 * math.tan(a)))
         return (self.od_mm - 2 * (self.depth_mm + self.apex_beyond_tip())
                 + self.pitch_mm / (2 * math.tan(a)))
 
     def depth_for(self, pd_mm: float) -> float:
         """Return the radial depth [mm] that leaves pitch diameter ``pd_mm`` [mm] (the inverse)."""
         a = self.half_angle
+        if self.internal:
+            return (pd_mm - self.od_mm + self.pitch_mm / (2 * math.tan(a))) / 2 \
+                - self.apex_beyond_tip()
         return (self.od_mm - pd_mm + self.pitch_mm / (2 * math.tan(a))) / 2 \
             - self.apex_beyond_tip()
 
@@ -121,3 +140,30 @@ def radial_from_dial(divisions: float, travel_per_division_mm: float, angle_deg:
     radial depth / cos angle).
     """
     return divisions * travel_per_division_mm * math.cos(math.radians(angle_deg))
+
+
+@dataclass
+class TaperSim(ThreadSim):
+    """A tapered thread: ``od_mm`` is the blank measured ``measured_at_mm`` from the small end;
+    ``k`` the taper on diameter. ``pitch_diameter()`` is at the measured plane."""
+
+    k: float = 1 / 16
+    measured_at_mm: float = 0.0
+
+    def pd_at(self, z_mm: float) -> float:
+        """Return the pitch diameter [mm] ``z_mm`` [mm] from the small end."""
+        return self.pitch_diameter() + self.k * (z_mm - self.measured_at_mm)
+
+    def reading_at(self, wire_mm: float, z_mm: float) -> float:
+        """Return what the micrometer shows over ``wire_mm`` with the single wire ``z_mm`` from
+        the small end, anvil on the two wires of the other side (see the module's model)."""
+        square = self.over_wires(wire_mm, self.pd_at(z_mm))
+        alpha = math.atan(self.k / 2)
+        m = (square - wire_mm) * math.cos(alpha) + wire_mm
+        value = m / INCH if self.unit == "in" else m
+        step = self.resolution_mm / INCH if self.unit == "in" else self.resolution_mm
+        return round(round(value / step) * step, 6)
+
+    def typed_at(self, wire_mm: float, z_mm: float) -> str:
+        places = 4 if self.unit == "in" else 3
+        return f"{self.reading_at(wire_mm, z_mm):.{places}f}"

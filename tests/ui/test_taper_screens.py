@@ -117,7 +117,7 @@ async def test_prepare_says_where_to_measure_the_blank(make_app):
         await pilot.pause()
         text = screen_text(app)
         # at the small end: 20.955 − 8.2/16 = 20.4425 mm = 0.8048 in (computed from the taper)
-        assert "blank OD at small end [in]" in text and "should read 0.8048 in" in text
+        assert "OD at small end [in]" in text and "should read 0.8048 in" in text
         assert "Turn the blank to the taper first" in text
         await pilot.press(*"0.8048", "enter", "enter")
         values = app.setup_values()

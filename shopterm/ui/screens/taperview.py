@@ -131,7 +131,7 @@ def blank_entry(lim, unit: str, fmt) -> tuple[str, str, str]:
     fmt: the screen's length formatter."""
     from shopterm.cutting.taper_thread import taper_blank
     b = taper_blank(lim, unit)
-    where = "bore at the face" if b.internal else "blank OD at small end"
+    where = "bore at face" if b.internal else "OD at small end"   # fits the entry (#od)
     return (f"1 {where} [{unit}]: ", f"should read {fmt(b.at_end)}", b.text)
 
 
