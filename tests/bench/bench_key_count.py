@@ -97,10 +97,10 @@ class Replay:
 
 async def replay_job(job, workdir: Path) -> dict:
     """Cut the job to its first passes and one reading; return the keys counted."""
-    from tests.keypad_jobs import SETUP_ANSWERS, demo_config, lathe_facts
+    from tests.keypad_jobs import demo_config, lathe_facts
     from shopterm.config import load_config
     from shopterm.ui.app import ShoptermApp
-    from tests.e2e.thread_sim import ThreadSim
+    from tests.e2e.thread_sim import TaperSim, ThreadSim
 
     path = demo_config(workdir, job.units)
     facts = lathe_facts(path)
@@ -113,17 +113,24 @@ async def replay_job(job, workdir: Path) -> dict:
         for n in range(2, job.starts + 1):
             await r.pick("This thread", f"starts: {n - 1}")
             await r.until(f"starts: {n}", f"{n} starts")
+        if job.internal:
+            await r.pick("This thread", "make it internal (nut)")
+            await r.until("internal ·", "the thread made internal")
         await r.pick("This thread", "use it →")
         await r.until("Question 1 of", "the set-up screen")
         assert job.want in app.spec.designation, app.spec.designation
         r.mark("choose_thread")
         await r.until(re.compile(r"(?m)^ Gears\s+\S"), "the change gears")
         await r.press("1")                                  # the best train
-        for heading, label in SETUP_ANSWERS:
+        for heading, label in job.setup_answers:
             await r.pick(heading, label)
         if job.starts > 1:
             await r.until("index to the next of", "the indexing question")
             await r.press("1")
+        if job.taper is not None:
+            await r.pick(*job.taper)
+            await r.until("the work's overall length", "the work's length asked")
+            await r.press(job.work_length_typed, "enter")
         await r.until("All answered", "every question answered")
         await r.press("enter")
         await r.until("Set-up recorded", "the set-up recorded")
@@ -137,8 +144,10 @@ async def replay_job(job, workdir: Path) -> dict:
         await r.until("Every item is checked", "the checklist done")
         await r.press("+")
         r.mark("checklist")
-        await r.until(lambda t: "Prepare " in t and "OD measured" in t and "\u2588" in t,
-                      "the counter's OD entry, with the cursor")
+        await r.until(lambda t: "Prepare " in t and (" measured" in t or " at small end" in t
+                                                      or " at face" in t),
+                      "the preparation's size entry")
+        await r.until(lambda t: "\u2588" in t, "the size entry's cursor")
         await r.press(job.od_typed, "enter")
         await r.until("Measured ", "the OD taken")
         await r.press("enter")
@@ -160,19 +169,38 @@ async def replay_job(job, workdir: Path) -> dict:
             per_pass.append(r.count - before)
         r.mark("passes")
         await r.press("+")
+        if job.internal:                   # gauged, not measured over wires: a fit check
+            await r.until("Record a fit check against:", "the fit check")
+            r.mark("to_wires")
+            await r.pick("Record a fit check against:", "Try a go / no-go plug gauge")
+            await r.pick("What happened?", "The go gauge does not enter")
+            await r.until("fit checks so far", "the fit check recorded")
+            r.mark("reading")
+            await r.press("-")
+            await r.until(PASS_OF, "back on the counter")
+            r.mark("back")
+            return counts(job, r.marks, per_pass, "")
         text = await r.until("Reading over wires", "the wire screen")
         r.mark("to_wires")
+        if job.plane_typed:                # tapered: the plane, once (it is remembered)
+            await r.press("enter", "1")
+            await r.until("Where is the single wire", "the plane asked")
+            await r.press(job.plane_typed, "enter")
+            text = await r.until("measured at", "the plane taken")
+        r.mark("plane")
         unit = job.units
         num = re.search(rf"wire (\d+(?:\.\d+)?) {unit}\b", text)
         assert num, text
         shown_mm = float(num[1]) * (25.4 if unit == "in" else 1.0)
         wire_mm = min(facts["wires_mm"], key=lambda w: abs(w - shown_mm))
         lead_mm = app.spec.lead
-        sim = ThreadSim(float(job.od_typed) * (25.4 if unit == "in" else 1.0), app.spec.pitch,
-                        lead_mm, 60.0, facts["tip_kind"], facts["tip_mm"],
-                        facts["resolution_mm"], unit)
+        args = (float(job.od_typed) * (25.4 if unit == "in" else 1.0), app.spec.pitch,
+                lead_mm, job.angle_deg, facts["tip_kind"], facts["tip_mm"],
+                facts["resolution_mm"], unit)
+        sim = TaperSim(*args, k=job.taper_k) if job.taper_k else ThreadSim(*args)
         sim.cut_to(app.state.passes[-1].radial_cum_mm)
-        typed = sim.typed(wire_mm)
+        typed = (sim.typed_at(wire_mm, float(job.plane_typed)) if job.plane_typed
+                 else sim.typed(wire_mm))
         readings = len(app.state.readings) if hasattr(app.state, "readings") else None
         await r.press(typed, "enter")
         await r.until(f"Reading {typed}", "the reading taken")
@@ -182,7 +210,13 @@ async def replay_job(job, workdir: Path) -> dict:
         await r.press("-")
         await r.until(PASS_OF, "back on the counter")
         r.mark("back")
-    m = r.marks
+    return counts(job, r.marks, per_pass, typed)
+
+
+def counts(job, m: dict, per_pass: list, reading_typed: str) -> dict:
+    """Return a job's key counts from the marks of its replay (``reading_typed`` '' for an
+    internal thread: a fit check with a plug gauge, two digits, stands for the reading)."""
+    plane = m.get("plane", m["to_wires"]) - m["to_wires"]
     return {
         "job": job.name,
         "choose_thread": m["choose_thread"],
@@ -192,9 +226,10 @@ async def replay_job(job, workdir: Path) -> dict:
         "to_first_pass": m["first_pass"],
         "per_pass": max(per_pass),
         "passes_cut": len(per_pass) + 1,
-        "per_reading": m["reading"] - m["to_wires"],
+        "per_reading": m["reading"] - m["to_wires"] - plane,
+        "plane": plane,
         "to_wires_and_back": (m["to_wires"] - m["passes"]) + (m["back"] - m["reading"]),
-        "reading_typed": typed,
+        "reading_typed": reading_typed,
     }
 
 
@@ -222,7 +257,9 @@ def report_lines(res: dict) -> list[str]:
         lines.append(f"  {j['job']:<20} choose {j['choose_thread']}, set-up {j['setup']}, "
                      f"checklist {j['checklist']}, prepare {j['prepare']}, first pass "
                      f"{j['to_first_pass']}; pass {j['per_pass']}; reading {j['per_reading']} "
-                     f"({j['reading_typed']} + Enter; + and - {j['to_wires_and_back']})")
+                     f"({j['reading_typed'] + ' + Enter' if j['reading_typed'] else 'a fit check'}"
+                     f"; + and - {j['to_wires_and_back']}"
+                     + (f"; the plane once {j['plane']}" if j["plane"] else "") + ")")
     return lines
 
 
