@@ -89,3 +89,18 @@ def test_texts_fit_and_keys_unique(kw):
 def test_errors(kw):
     with pytest.raises(InvalidEntry):
         base(**kw)
+
+
+def test_a_taper_adds_its_setting_and_the_tool_square_to_the_axis():
+    from shopterm.lathe.checklist import build_checklist
+    lines = (("tool_square", "Tool set square to the work's axis, not to the taper", "why"),
+             ("taper", "Tailstock set over 5.00 mm toward the tool (dial indicator)", "how"))
+    items = build_checklist(between_centres=True, internal=False, compound_setting_deg=27,
+                            half_nut_plan="any line", has_relief=True, taper=lines)
+    keys = [it.key for it in items]
+    # the taper's tool-square item takes the place of the usual one, next to centre height
+    assert keys[:3] == ["centre_height", "tool_square", "taper"]
+    assert keys.count("tool_square") == 1 and items[1].text.endswith("not to the taper")
+    plain = build_checklist(between_centres=True, internal=False, compound_setting_deg=27,
+                            half_nut_plan="any line", has_relief=True)
+    assert "taper" not in [it.key for it in plain] and len(plain) == len(items) - 1

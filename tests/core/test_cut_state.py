@@ -166,3 +166,22 @@ def test_wire_reading_replans_the_rest_to_the_aim():
     assert abs(c.plan.set_total_radial - (done + left)) <= DIV / 2 * math.cos(
         math.radians(ANGLE)) + 1e-9
     assert c.passes_before == 3 and c.done_in_plan == 0
+
+
+def test_a_tapered_blank_is_planned_at_the_gauge_plane():
+    r12 = parse("R1/2")
+    # the blank measured at the small end, 8.2/16 under the gauge diameter 20.955 (ISO 7-1
+    # size 1/2, from memory; computed along the 1:16 taper), plans the same infeed as one
+    # measured at the gauge plane
+    at_end = prepared_setup(r12, LATHE, values(blank_od_mm=20.955 - 8.2 / 16))
+    at_gauge = prepared_setup(r12, LATHE, values(blank_od_mm=20.955, blank_at_mm=8.2))
+    assert at_end["blank_at_mm"] == 0.0 and at_gauge["blank_at_mm"] == 8.2
+    from shopterm.cutting.cut_state import prepare
+    d_end = prepare(r12, LATHE, at_end)[1]
+    d_gauge = prepare(r12, LATHE, at_gauge)[1]
+    assert d_end.total_radial == pytest.approx(d_gauge.total_radial)
+    assert d_end.turned_diameter == pytest.approx(20.955)
+    # a parallel thread records no blank_at_mm
+    assert "blank_at_mm" not in prepared_setup(M10, LATHE, values())
+    with pytest.raises(InvalidEntry, match="beyond the thread"):
+        prepared_setup(r12, LATHE, values(blank_od_mm=20.5, blank_at_mm=40.0))

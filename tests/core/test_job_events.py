@@ -63,6 +63,7 @@ def test_good_payload_round_trips_through_json(kind):
     ("setup_confirmed", {"gears": object()}, "plain values"),
     ("setup_confirmed", {"x": "y" * 70000}, "too long"),
     ("note", "pass 3", "set of named values"),
+    ("note", {"text": "Hand-tight check", "hand_tight": 2.5}, "set of named values"),
 ])
 def test_bad_payloads_are_refused_with_a_message(kind, payload, words):
     with pytest.raises(InvalidEntry, match=words.replace("(", r"\(")):

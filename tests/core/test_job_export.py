@@ -186,3 +186,23 @@ def test_export_while_the_app_holds_the_record(tmp_path, capsys):
     job.append("pass_cut", {"radial_cum_mm": 0.2})      # the app is not disturbed
     assert not app.read_only and app.health is None
     app.close()
+
+
+def test_pipe_thread_card_and_json_carry_the_pressure_caution(store):
+    job = store.new_job("R1/2")
+    # a reading 5 mm from the small end: PD there and at the gauge plane 3.2/16 mm larger
+    # (ISO 7-1 gauge length 8.2 mm, taper 1:16, from memory; computed)
+    job.append("wire_reading", {"measured_mm": 21.2, "pd_mm": 19.8, "pd_at_plane_mm": 19.6,
+                                "distance_mm": 5.0, "pd_max_mm": 19.906, "pd_min_mm": 19.681,
+                                "state": "in_band"})
+    job.append("note", {"text": "Hand-tight check with a ring gauge: within the gauge",
+                        "hand_tight": {"against": "ring_gauge", "state": "done"}})
+    card = job_card(job.events)
+    assert "CAUTION     A pressure fitting's fitness for service is not settled" in card
+    flat = " ".join(card.split())                 # the card wraps long lines
+    assert "at 5.000 mm from the end, PD there 19.600 mm; at the gauge plane, PD 19.800" in flat
+    assert "Hand-tight check with a ring gauge" in card
+    assert to_dict(job.events)["job"]["cautions"][0].startswith("A pressure fitting's")
+    # a screw thread has none
+    assert to_dict(metric_job(store).events)["job"]["cautions"] == []
+    assert "CAUTION" not in job_card(metric_job(store).events)

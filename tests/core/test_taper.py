@@ -163,3 +163,40 @@ def test_sample_config_taper_kit():
     assert s.set_over.divisions == pytest.approx(6.25)
     assert s.attachment.setting == pytest.approx(0.75) and s.attachment.scale == "in_per_ft"
     assert s.compound is not None
+
+
+# ---- the set-up's taper value and its checklist lines ---------------------------------------------
+
+def test_setup_value_set_over_and_its_checklist_lines():
+    kit = lathe(tailstock=Tailstock(division=1.0, max_set_over=12.0))
+    setups = tp.taper_setups(kit, K, 160.0, 13.2)
+    v = tp.setup_value(setups, "set_over")
+    # 160/32 = 5 mm, 5 lines of 1 mm (computed from the set-over formula, Machinery's Handbook)
+    assert v["method"] == "set_over" and v["set_over_mm"] == pytest.approx(5.0)
+    assert v["divisions"] == pytest.approx(5.0) and v["toward_tool"] is True
+    lines = dict((key, (text, detail)) for key, text, detail in tp.checklist_lines(v))
+    assert lines["taper"][0] == "Tailstock set over 5.00 mm toward the tool (dial indicator)"
+    assert "dial indicator over the work length" in lines["taper"][1]
+    assert "not to the taper" in lines["tool_square"][0]
+    # an internal thread's face at the tailstock: the other way (common practice, no source)
+    inside = tp.setup_value(setups, "set_over", internal=True)
+    assert "away from the tool" in tp.checklist_lines(inside)[0][1]
+
+
+def test_setup_value_attachment_and_refusals():
+    kit = lathe(taper_attachment=TaperAttachment("in_per_ft", 3.0, None))
+    setups = tp.taper_setups(kit, K, None, 13.2)
+    v = tp.setup_value(setups, "attachment")
+    # 12/16 = 0.75 in per foot (ASME B1.20.1, 3/4 in per foot, from memory)
+    assert v["setting"] == pytest.approx(0.75) and v["shown"] == "0.75 in/ft"
+    assert tp.checklist_lines(v)[0][1] == "Taper attachment set to 0.75 in/ft, its bar clamped"
+    with pytest.raises(InvalidEntry, match="not between centres"):
+        tp.setup_value(setups, "set_over")          # no work length: not between centres
+    with pytest.raises(InvalidEntry, match="blank"):
+        tp.setup_value(setups, "compound")          # the compound turns the blank only
+    with pytest.raises(InvalidEntry, match="No taper attachment"):
+        tp.setup_value(tp.taper_setups(lathe(), K, None, 13.2), "attachment")
+    with pytest.raises(InvalidEntry, match="set-over, the taper attachment or the compound"):
+        tp.setup_value(setups, "eyeball")
+    with pytest.raises(InvalidEntry, match="record it on the set-up screen"):
+        tp.checklist_lines(None)

@@ -336,3 +336,17 @@ def test_pass_plan_from_the_gauge_plane_depth():
     # the plan ends at the gauge-plane depth, to the nearest dial division (0.01 mm radial)
     assert plan.set_total_radial == pytest.approx(depth.total_radial, abs=0.005 + 1e-9)
     assert depth.turned_diameter == pytest.approx(R12_GAUGE_D)
+
+
+def test_wire_band_at_a_plane_moves_with_the_taper():
+    # between two planes 3.2 mm apart the band's readings move by the PD's change k × 3.2
+    # (to within the cos α of the anvil and the lead term: computed from the 1:16 taper)
+    top8, bottom8 = tt.wire_band_at(R, 1.0185, 8.2)
+    top5, bottom5 = tt.wire_band_at(R, 1.0185, 5.0)
+    assert top8 - top5 == pytest.approx(3.2 / 16, abs=2e-4)
+    assert bottom8 - bottom5 == pytest.approx(3.2 / 16, abs=2e-4)
+    # over wires the reading moves with the PD one for one (NBS H28, three-wire method), read
+    # along the tilted anvil: the PD band 2 × 1.8/16 (ISO 7-1, from memory) × cos atan(1/32)
+    assert top8 - bottom8 == pytest.approx(0.225 * math.cos(math.atan(1 / 32)), abs=3e-4)
+    with pytest.raises(InvalidEntry, match="beyond the thread"):
+        tt.wire_band_at(R, 1.0185, 30.0)

@@ -424,6 +424,15 @@ def test_reading_sets_split_at_cuts_and_wire_changes():
         ("start", 1), ("pass 1", 2), ("pass 1", 1), ("spring", 1)]
     assert isinstance(sets[0], ReadingSet) and sets[2].wire_mm == 0.87
     assert reading_sets(None) == []
+    # a tapered thread's readings at another plane start a new set (DEVELOPERS.md)
+    add("wire_reading", {**reading(10.19, 0.87), "distance_mm": 5.0})
+    add("wire_reading", {**reading(10.18, 0.87), "distance_mm": 5.0})
+    add("wire_reading", {**reading(10.25, 0.87), "distance_mm": 8.2})
+    from shopterm.cutting.reading_sets import current_set
+    sets = reading_sets(fold(events))
+    assert [len(s.readings) for s in sets[3:]] == [1, 2, 1]
+    assert len(current_set(fold(events), 0.87, 8.2).readings) == 1
+    assert current_set(fold(events), 0.87, 5.0) is None
 
 
 @pytest.mark.parametrize("pd, mark", [(9.5, "<"), (8.0, ">"), (8.93, "█")])
