@@ -13,6 +13,7 @@ REGISTRY: dict[str, tuple[str, str, str]] = {
     "fitcheck": ("shopterm.ui.screens.fitcheck", "FitCheckScreen", "Fit check"),
     "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
     "identify": ("shopterm.ui.screens.identify", "IdentifyScreen", "What thread is this?"),
+    "fitsample": ("shopterm.ui.screens.fitsample", "FitSampleScreen", "Cut to fit a sample"),
     "jobs": ("shopterm.ui.screens.jobs", "JobsScreen", "Jobs and export"),
 }
 

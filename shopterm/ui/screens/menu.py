@@ -16,8 +16,9 @@ from shopterm.ui.widgets.picklist import PickList
 #: entries, one digit each): the tool form opens from the pass counter (8), the pick-up from
 #: the counter (1), the wire choice from the wire screen (Enter on an empty entry); the
 #: preparation is where "Pass counter" goes until the cut is prepared, the fit check where
-#: "Wire reading" goes for an internal thread.
-NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck")
+#: "Wire reading" goes for an internal thread; cutting to fit a sample opens from a candidate
+#: on "What thread is this?".
+NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "fitsample")
 
 
 class MenuScreen(ModalScreen[str | None]):
