@@ -60,6 +60,10 @@ class FitSampleScreen(StepScreen):
             self.say("")
             self.show_step()
 
+    def on_screen_resume(self) -> None:
+        super().on_screen_resume()
+        self.show_step()              # the job's thread may have changed meanwhile
+
     @property
     def unit(self) -> str:
         return self.own_unit or self.app.shop.display_units
@@ -118,7 +122,7 @@ class FitSampleScreen(StepScreen):
                     ("a bolt to fit the nut the sample bolt fits", "external")]
             if not self.thread().is_external:
                 cuts.reverse()
-            return f"{self.thread().designation}: what is cut to fit the sample?", cuts
+            return f"{self.designation()}: what is cut to fit the sample?", cuts
         if step == "how":
             return "The sample bolt's pitch diameter", [("measure it over wires", "wires"),
                                                        ("I know it: type it", "pd")]

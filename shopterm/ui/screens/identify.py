@@ -41,7 +41,7 @@ QUESTIONS = {
     "crest_flat": "Width of the flat on a crest, loupe and rule [{unit}] (0: a rounded crest)",
     "taper_1": "Taper: the crest diameter at one place, with calipers [{unit}]",
     "taper_2": "Taper: the crest diameter at a second place along the thread [{unit}]",
-    "taper_apart": "Taper: how far apart the two places are [{unit}] (about {apart})",
+    "taper_apart": "Taper: how far apart the two places are, along the thread [{unit}]",
 }
 PITCH_WAYS = (("pitch gauge in mm", "mm"), ("pitch gauge in tpi", "tpi"),
               ("count crests over a length", "crests"), ("count spaces over a length", "spaces"),
@@ -49,6 +49,12 @@ PITCH_WAYS = (("pitch gauge in mm", "mm"), ("pitch gauge in tpi", "tpi"),
 ANGLES = (("60° (metric, Unified)", 60.0), ("55° (Whitworth form)", 55.0),
           ("47.5° (BA)", 47.5), ("not gauged", None), ("30° (trapezoidal)", 30.0),
           ("29° (Acme)", 29.0), ("0°: square flanks (square thread)", 0.0))
+TAPER_HINT = ("Calipers square across the crests at two places along the thread, as far apart "
+              "as the thread allows. A tapered pipe thread (R, NPT) grows 1 in 16 on "
+              "diameter; a parallel one (G) not at all.")
+CREST_FLAT_HINT = ("Look at a crest under a loupe against a rule or the caliper jaws: a "
+                   "trapezoidal or Acme crest is a wide flat (over a third of the pitch), a 60° "
+                   "crest a narrow one (an eighth), a Whitworth or BA crest rounded (type 0).")
 #: The measurements this screen can ask for again from the candidates, by the core's
 #: ``TellApart.measure``, in the order offered: with the calipers first (they are in hand: the
 #: crest diameter was taken with them), then a gauge leaf, then wires.
@@ -164,13 +170,16 @@ class IdentifyScreen(StepScreen):
             return self.results_text()
         if step == "candidate":
             return self.candidate_text()
+        if step.startswith("taper"):
+            return TAPER_HINT
+        if step == "crest_flat":
+            return CREST_FLAT_HINT
         if step in ("over", "wire", "wires"):
             from shopterm.cutting.wires import MEASURE_CAUTION
             return Text(f"Caution: {MEASURE_CAUTION}", style="bold")
         return ""
 
     def question(self, step: str) -> str:
-        from shopterm.cutting.identify import TAPER_CHECK_DISTANCE
         v = self.values
         wire = v.get("wire")
         return QUESTIONS[step].format(
@@ -178,8 +187,7 @@ class IdentifyScreen(StepScreen):
             both=" (both end crests included)" if v.get("pitch_how") == "crests" else "",
             crest="Major diameter of the bolt" if self.kind == "external"
             else "Minor diameter of the nut (the bore)",
-            wire=wire_label(wire, self.unit) if isinstance(wire, float) else "",
-            apart=format_length(TAPER_CHECK_DISTANCE, self.unit))
+            wire=wire_label(wire, self.unit) if isinstance(wire, float) else "")
 
     def choices(self, step: str) -> tuple[str, list[tuple[str, Any]]]:
         """Return (question, numbered choices) for a pick step."""
@@ -294,35 +302,42 @@ class IdentifyScreen(StepScreen):
         return head, items
 
     def results_text(self) -> Text:
+        """Return the top candidates' reasons, the note and the telling measurement, in the
+        lines left under the list (the reasons get what the rest leaves)."""
         r = self.result
-        out = Text()
         tall = (self.size.height or 24) >= 30
         ask = self.to_ask()
-        shown_top = 2 if ask and not tall else 3
-        for i, c in enumerate(r.candidates[:shown_top]):
-            for line in self.wrapped(f"{i + 1} {c.designation}: {c.why}", 3 if tall else 2):
-                out.append(line + "\n")
-        if r.note:
-            for line in self.wrapped(r.note, 3):
-                out.append(line + "\n", style="bold")
+        tail: list[tuple[str, str]] = [(line, "bold") for line in self.wrapped(r.note, 4, "")]
         if len(r.candidates) > 1 and r.ambiguous:
             top = r.candidates[0].designation
             if ask:
                 first = {m for m, (step, _) in ASK_FOR.items() if step == ask[0][0]}
                 shown = [t for t in r.to_tell_apart if t.measure in first
                          and top in t.between][:1]
-                out.append("To tell them apart:\n", style="bold")
+                tail.append(("To tell them apart:", "bold"))
             else:
                 rival = r.candidates[1].designation
                 shown = [t for t in r.to_tell_apart if set(t.between) == {top, rival}]
                 shown = shown[:3 if tall else 2]
-                out.append(f"To tell {top} from {rival}:\n", style="bold")
+                tail.append((f"To tell {top} from {rival}:", "bold"))
             for t in shown:
-                for line in self.wrapped(f"• {t.how}", 3 if ask else 2):
-                    out.append(line + "\n")
-            out.append("A digit on a candidate shows what tells it from the others.", style="dim")
+                tail += [(line, "") for line in self.wrapped(f"• {t.how}", 3 if ask else 2)]
+            tail.append(("A digit on a candidate shows what tells it from the others.", "dim"))
         elif r.candidates:
-            out.append(f"Only {r.candidates[0].designation} fits well.", style="bold")
+            tail.append((f"Only {r.candidates[0].designation} fits well.", "bold"))
+        # status, what was entered (2), message, question, the list, key bar
+        room = (self.size.height or 24) - 6 - len(self.results_choices()[1]) - len(tail)
+        out = Text()
+        for i, c in enumerate(r.candidates[:3]):
+            lines = self.wrapped(f"{i + 1} {c.designation}: {c.why}", 3 if tall else 2)
+            if len(lines) > room:
+                break
+            room -= len(lines)
+            for line in lines:
+                out.append(line + "\n")
+        for line, style in tail:
+            out.append(line + "\n", style=style)
+        out.rstrip()
         return out
 
     def candidate_text(self) -> Text:
@@ -396,7 +411,7 @@ class IdentifyScreen(StepScreen):
                 v["crest_flat"] = value
             else:
                 v["taper"] = (*v["taper_parts"], value)
-            for key in ("more", "extra", "wire", "taper_parts"):
+            for key in ("wire", "taper_parts", "extra" if "extra" in v else "more"):
                 v.pop(key, None)
         elif step == "wire_typed":
             self.answer("wire", value)        # the typed size replaces "type it"
