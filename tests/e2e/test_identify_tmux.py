@@ -1,7 +1,7 @@
 """'What thread is this?' end to end: the installed ``shopterm`` in tmux at 80x24, keypad keys
 only (digits, ``.``, ``*``, ``-`` and keypad Enter). A 1/2 in pipe fitting is measured, the
-taper tells the tapered pipe threads from the parallel one, and a candidate is handed to the
-"Cut to fit a sample" screen. Run with ``pytest -s tests/e2e`` to see every captured screen.
+taper tells the tapered pipe threads from the parallel one, and the tapered candidate handed to
+"Cut to fit a sample" is refused there (a taper fits along its length, not to one band). Run with ``pytest -s tests/e2e`` to see every captured screen.
 """
 
 from __future__ import annotations
@@ -29,7 +29,7 @@ def entry(pane: tmux.Pane, question: str, typed: str) -> None:
     pane.send(typed, tmux.KEYPAD_ENTER)
 
 
-def test_a_pipe_fitting_is_told_by_its_taper_and_handed_to_fit_a_sample(tmux_shopterm):
+def test_a_pipe_fitting_is_told_by_its_taper_and_not_cut_to_a_sample(tmux_shopterm):
     pane = tmux_shopterm()
     pane.send("*")
     pick(pane, "Go to", "What thread is this?")
@@ -59,9 +59,9 @@ def test_a_pipe_fitting_is_told_by_its_taper_and_handed_to_fit_a_sample(tmux_sho
     assert "G1/2 external" not in names(text)[:2]
     pick(pane, "Could be any of these", "R1/2           fit 100%")
     pick(pane, "R1/2: what now?", "cut to fit a sample: a nut to fit the sample bolt")
-    text = pane.wait_for("Cut to fit a sample")
-    show("cut to fit a sample, handed R1/2", text)
-    assert "sample: R1/2" in text and "The sample bolt's pitch diameter" in text
+    text = pane.wait_for("is a tapered thread")
+    show("cut to fit a sample, handed R1/2: refused, it fits along its taper", text)
+    assert "sample: R1/2" in text and "check it hand-tight" in " ".join(text.split())
     pane.send("-")
     text = pane.wait_for("R1/2: what now?")
     assert "Traceback" not in text

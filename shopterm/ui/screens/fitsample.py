@@ -74,11 +74,22 @@ class FitSampleScreen(StepScreen):
             return self.app.spec.with_(pitch_implied=False)
         return self.reference
 
+    def refusal(self) -> str:
+        """Return why the thread cannot be cut to a sample (a tapered one), or ''."""
+        from shopterm.cutting.fit_sample import check_sample_thread
+        try:
+            check_sample_thread(self.thread())
+        except ShoptermError as exc:
+            return str(exc)
+        return ""
+
     # -- the questions --------------------------------------------------------------------------
     def step(self) -> str:
         v = self.values
         if self.thread() is None:
             return "no_thread"
+        if self.refusal():
+            return "refused"
         if "cut" not in v:
             return "cut"
         if "how" not in v:
@@ -117,6 +128,8 @@ class FitSampleScreen(StepScreen):
             return ("No thread to fit yet: identify the sample or choose the thread",
                     [("What thread is this? (measure the sample)", "identify"),
                      ("choose the thread", "thread")])
+        if step == "refused":
+            return self.refusal(), [("back", "back")]
         if step == "cut":
             cuts = [("a nut to fit the sample bolt", "internal"),
                     ("a bolt to fit the nut the sample bolt fits", "external")]
@@ -183,6 +196,9 @@ class FitSampleScreen(StepScreen):
     def chose(self, step: str, value: Any) -> bool:
         if step == "no_thread":
             self.app.goto(value)
+            return False
+        if step == "refused":
+            self.leave_back()
             return False
         if step == "target":
             if value == "back":
