@@ -3,6 +3,7 @@
 REGISTRY: dict[str, tuple[str, str, str]] = {
     # name: (module, class, title in the menu)
     "thread": ("shopterm.ui.screens.thread", "ThreadScreen", "Thread"),
+    "special": ("shopterm.ui.screens.special", "SpecialThreadScreen", "Special thread"),
     "setup": ("shopterm.ui.screens.setup", "SetupScreen", "Lathe set-up"),
     "checklist": ("shopterm.ui.screens.checklist", "ChecklistScreen", "Checklist"),
     "prepare": ("shopterm.ui.screens.prepare", "PrepareScreen", "Prepare the cut"),

@@ -17,8 +17,9 @@ from shopterm.ui.widgets.picklist import PickList
 #: the counter (1), the wire choice from the wire screen (Enter on an empty entry); the
 #: preparation is where "Pass counter" goes until the cut is prepared, the fit check where
 #: "Wire reading" goes for an internal thread; cutting to fit a sample opens from a candidate
-#: on "What thread is this?".
-NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "fitsample")
+#: on "What thread is this?", the special thread's entry from the "Special thread" family.
+NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "fitsample",
+               "special")
 
 
 class MenuScreen(ModalScreen[str | None]):
