@@ -323,7 +323,7 @@ class IdentifyScreen(StepScreen):
             for t in shown:
                 tail += [(line, "") for line in self.wrapped(f"• {t.how}", 3 if ask else 2)]
             tail.append(("A digit on a candidate shows what tells it from the others.", "dim"))
-        elif r.candidates:
+        elif r.candidates and not r.note:       # a note says what the fit is worth
             tail.append((f"Only {r.candidates[0].designation} fits well.", "bold"))
         # status, what was entered (2), message, question, the list, key bar
         room = (self.size.height or 24) - 6 - len(self.results_choices()[1]) - len(tail)
