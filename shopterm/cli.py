@@ -34,6 +34,9 @@ def build_parser(with_commands: bool = True) -> argparse.ArgumentParser:
     parser.add_argument("--check-config", nargs="?", const="", metavar="PATH",
                         help="validate a config file (default: the one that would be used); "
                              "exit 0 if good, 2 if not")
+    parser.add_argument("--profile-start", action="store_true",
+                        help="start, stop at the first screen, and print where the start-up "
+                             "time went (one line per phase, in ms)")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     if not with_commands:
         return parser
@@ -95,6 +98,9 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def _run_app(args) -> int:
+    if args.profile_start:
+        from shopterm.startprofile import profile_start
+        return profile_start(config_path=args.config, data_dir=args.data_dir)
     from shopterm.ui.app import run_app
     return run_app(config_path=args.config, data_dir=args.data_dir)
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import contextlib
 import importlib
 import os
 import sys
@@ -350,17 +351,24 @@ def describe_event(event) -> str:
     return event.title
 
 
-def run_app(config_path: str | None = None, data_dir: str | None = None) -> int:
-    """Start the app; refuse to start with a config that is not valid. Returns the exit code."""
+def run_app(config_path: str | None = None, data_dir: str | None = None, *,
+            profile=None) -> int:
+    """Start the app; refuse to start with a config that is not valid. Returns the exit code.
+
+    ``profile``: a ``shopterm.startprofile.StartProfile`` (``shopterm --profile-start``): the
+    phases are timed into it and the app stops once its first screen is painted.
+    """
     from shopterm.config import load_config
     from shopterm.errors import ConfigError
     from shopterm.job.store import Store
 
+    phase = profile.phase if profile is not None else (lambda name: contextlib.nullcontext())
     # The record opens on a thread meanwhile: its disk waits overlap reading the config and
     # Textual's start; the app takes it on mount.
     opening = Store.open_in_background(data_dir)
     try:
-        config = load_config(config_path)
+        with phase("config read"):
+            config = load_config(config_path)
     except ConfigError as exc:
         opening.discard()
         print(f"shopterm: {exc}\nFix that line (check it with: shopterm --check-config PATH), "
@@ -369,6 +377,13 @@ def run_app(config_path: str | None = None, data_dir: str | None = None) -> int:
     except BaseException:
         opening.discard()
         raise
-    app = ShoptermApp(config, data_dir=data_dir, store_opening=opening)
-    app.run()
+    with phase("app built (themes, stylesheet)"):
+        app = ShoptermApp(config, data_dir=data_dir, store_opening=opening)
+    if profile is None:
+        app.run()
+    else:
+        app.run(headless=not sys.stdout.isatty(), auto_pilot=profile.autopilot)
+        profile.add("record open", opening.seconds * 1e3,
+                    f"on its own thread meanwhile; the app waited {opening.waited * 1e3:.1f} ms",
+                    after="app built (themes, stylesheet)")
     return app.return_code or 0
