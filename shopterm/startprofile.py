@@ -1,7 +1,7 @@
 """``shopterm --profile-start``: where start-up time goes, one line per phase, in ms.
 
 For a user on a slow machine (a Raspberry Pi) to report what start-up costs there. The app is
-started the usual way (same config, same record, on the terminal when there is one, else
+started the usual way (same config, same record, on the terminal when stderr is one, else
 headless at 80x24) and stops by itself once its first screen is painted; then the table is
 printed. Phases, in the order they happen (each includes the imports made during it):
 

@@ -382,7 +382,8 @@ def run_app(config_path: str | None = None, data_dir: str | None = None, *,
     if profile is None:
         app.run()
     else:
-        app.run(headless=not sys.stdout.isatty(), auto_pilot=profile.autopilot)
+        # Textual draws on stderr: on a terminal the first paint is the real one
+        app.run(headless=not sys.__stderr__.isatty(), auto_pilot=profile.autopilot)
         profile.add("record open", opening.seconds * 1e3,
                     f"on its own thread meanwhile; the app waited {opening.waited * 1e3:.1f} ms",
                     after="app built (themes, stylesheet)")
