@@ -212,6 +212,9 @@ class ShoptermApp(App):
         if name == "quit":
             self.exit(0)
             return
+        if name == "shutdown":
+            self.ask_shutdown()
+            return
         if name not in REGISTRY:
             return
         try:
@@ -278,6 +281,61 @@ class ShoptermApp(App):
                     screen.job_changed()
 
         self.push_screen(ConfirmScreen(f"Undo {describe_event(target)}?"), answer)
+
+    # -- shutting the Pi down ----------------------------------------------------------------
+    def ask_shutdown(self) -> None:
+        """Ask before shutting the machine down (only offered with ``[pi] shutdown_command``)."""
+        from shopterm.ui.screens.menu import ConfirmScreen
+        if not self.config.shutdown_command:
+            return
+
+        def answer(yes: bool | None) -> None:
+            if yes:
+                self.shut_down()
+
+        self.push_screen(ConfirmScreen(
+            "Shut the Pi down?\nThe job record is closed first; the job can be carried on "
+            "after the next start.\nSwitch off only when the screen is dark and the Pi's "
+            "activity light has stopped."), answer)
+
+    def shut_down(self) -> bool:
+        """Close the record, then run the configured shutdown command; True if it ran.
+
+        Refused (nothing closed) while entries wait in memory to be written. If the command
+        cannot be run or fails, the record is opened again and the app goes on as before.
+        References: SQLite "Write-Ahead Logging" (closing the last connection checkpoints the
+        WAL into the database file); sync(2).
+        """
+        import subprocess
+        command = self.config.shutdown_command
+        job_id = self.job.job_id if self.job is not None else None
+        if self.store is not None:
+            if self.store.pending and not self.store.retry():
+                self.notify(f"Not shutting down: {self.store.health}", severity="error",
+                            timeout=20)
+                return False
+            self.store.close()
+            self.store = None
+            self.job = None
+        os.sync()
+        try:
+            run = subprocess.run(command, stdin=subprocess.DEVNULL, capture_output=True,
+                                 text=True, timeout=30)
+            failed = (None if run.returncode == 0 else
+                      (run.stderr.strip().splitlines() or [f"exit status {run.returncode}"])[-1])
+        except (OSError, subprocess.TimeoutExpired) as exc:
+            failed = str(exc)
+        if failed is None:
+            self.exit(0, message="shopterm: the job record is closed; the Pi is shutting down.")
+            return True
+        self._open_store()
+        if self.store is not None and job_id is not None:
+            self.job = self.store.open_job(job_id)
+        self.notify(f"The Pi did not shut down ({' '.join(command)}: {failed}). The record is "
+                    "open again; carry on, or switch off from a shell.", severity="error",
+                    timeout=20)
+        self._after_change()
+        return False
 
     # -- what the status line says -----------------------------------------------------------
     def status_text(self, title: str) -> tuple[str, bool]:
