@@ -32,10 +32,9 @@ import time
 from dataclasses import dataclass
 from datetime import datetime
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from shopterm.errors import InvalidEntry, ShoptermError
-from typing import TYPE_CHECKING
 
 if TYPE_CHECKING:
     from shopterm.job.events import Event
