@@ -5,8 +5,8 @@ started the usual way (same config, same record, on the terminal when stderr is 
 headless at 80x24) and stops by itself once its first screen is painted; then the table is
 printed. Phases, in the order they happen (each includes the imports made during it):
 
-- ``python start``: from the process start (``/proc/self/stat``, 10 ms steps) to shopterm's
-  first line: interpreter, site-packages, the command's own script;
+- ``python start``: from the process start (``/proc/self/stat``, 10 ms steps) until the
+  profile starts: interpreter, site-packages, the command's own script, the command line read;
 - ``import the app``: Textual, Rich and the app's modules;
 - ``config read``, ``app built (themes, stylesheet)``;
 - ``record open``: the job record opens on a thread meanwhile; the line gives how long the
