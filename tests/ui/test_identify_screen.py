@@ -359,10 +359,8 @@ async def test_a_worn_leadscrew_gets_its_note_and_the_power_thread_gauges(make_a
     app = make_app(start_screen="thread")
     async with app.run_test(size=(80, 24)) as pilot:
         await open_screen(app, pilot)
-        await pick(pilot, app, "bolt (external), diameters in mm")
-        await type_in(pilot, "23.3")
-        await pick(pilot, app, "gauge in mm")
-        await type_in(pilot, "5")
+        await measure_bolt(pilot, app, "23.3", "gauge in mm", "5", angle="30° (trapezoidal)")
+        await pilot.press("minus")                            # back to the angle: all gauges
         labels = [label for label, _ in app.screen.query_one("#choices").items]
         assert [label.split()[0] for label in labels] == \
             ["60°", "55°", "47.5°", "not", "30°", "29°", "0°:"]
