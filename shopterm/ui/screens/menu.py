@@ -17,7 +17,8 @@ from shopterm.ui.widgets.picklist import PickList
 #: the counter (1), the wire choice from the wire screen (Enter on an empty entry); the
 #: preparation is where "Pass counter" goes until the cut is prepared, the fit check where
 #: "Wire reading" goes for an internal thread.
-NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck")
+NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck",
+               "caliper")
 
 
 class MenuScreen(ModalScreen[str | None]):
