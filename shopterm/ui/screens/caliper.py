@@ -24,6 +24,7 @@ from shopterm.errors import ShoptermError
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.screens.cutview import LengthEntry
+from shopterm.ui.screens.wires import WiresScreen
 from shopterm.ui.screens.wireview import band_picture, fmt
 from shopterm.ui.widgets.entry import KeypadEntry
 
@@ -211,7 +212,9 @@ class CaliperScreen(ShopScreen):
             text.append(f"divisions more on the {where}", style="bold")
             text.append(f"\n→ PD {fmt(self.app, setting.predicted_pd)}, thickness "
                         f"{fmt(self.app, cm.thickness_at(setting.predicted_pd))}")
-            text.append(f"\n{m.direction}")
+            top, bottom = WiresScreen.limit_settings(m, slide)
+            if top is not None:
+                text.append(f"\nin the band from {top} to {bottom} div")
         else:
             digits.update("0")
             text.append("no more feed", style="bold")
@@ -222,7 +225,8 @@ class CaliperScreen(ShopScreen):
         state_line.set_classes(m.state)
         state_line.update(m.headline)
         self.query_one("#cal-detail", Static).update(
-            band_picture(m.pitch_diameter, m.pd_max, m.pd_min))
+            band_picture(m.pitch_diameter, m.pd_max, m.pd_min)
+            + (f"\n{m.direction}" if m.state == "oversize" else ""))
         if m.state == "undersize":
             self.query_one("#caution", Static).update(m.caution)
 
