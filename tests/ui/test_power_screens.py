@@ -14,11 +14,21 @@ import math
 import pytest
 
 from shopterm.standards import parse
-from tests.ui.conftest import screen_text
+from tests.glyphs import missing_glyphs
+from tests.ui.conftest import screen_lines, screen_text
+from tests.ui.test_snapshots import scrolled_out
 
 pytestmark = pytest.mark.asyncio
 
 IN = 25.4                           # NIST SP 811: 1 in = 25.4 mm exactly
+
+
+def fits(app) -> None:
+    """The screen fits 80x24 with nothing to scroll and only console glyphs."""
+    lines = screen_lines(app)
+    assert len(lines) == 24 and all(len(ln) <= 80 for ln in lines)
+    assert scrolled_out(app) == []
+    assert missing_glyphs("\n".join(lines)) == set()
 
 
 async def to_prepare(app, pilot, designation):
@@ -50,6 +60,7 @@ async def test_prepare_defaults_to_the_standard_flat_and_shows_the_helix(make_ap
         # plus 3° working clearance (side clearance rule, Machinery's Handbook, from memory)
         root = math.degrees(math.atan(10 / (math.pi * 18.5)))
         assert f"Helix {root:.1f}° root" in text and f"leading {root + 3:.1f}°" in text
+        fits(app)
         await typed(pilot, ".941")
         await pilot.press("enter")
         text = screen_text(app)
@@ -113,6 +124,7 @@ async def test_alternating_flank_passes_show_the_side_shift(make_app):
             offset = line.split("(")[1].split(" in ")[0]
             assert float(offset) == pytest.approx(abs(count) * 0.001, abs=5e-5), line
             assert f"shift the compound {side} to {mark:g}" in " ".join(text.split())
+            fits(app)
             sides.append(side)
             await pilot.press("enter")
             await pilot.pause()
@@ -144,6 +156,7 @@ async def test_no_wire_fits_so_the_caliper_takes_the_reading(make_app):
         await pilot.press("enter")
         text = screen_text(app)
         assert "In the band: stop." in text, text
+        fits(app)
         r = app.state.readings[-1]
         assert r.payload["method"] == "caliper" and r.wire_mm is None
         assert r.measured_mm == pytest.approx(0.095 * IN)

@@ -173,10 +173,10 @@ class CaliperScreen(ShopScreen):
         head.append("\nDepth slide ")
         head.append(fmt(self.app, band.depth_setting), style="bold")
         head.append(f" from the crest ({'blank ' if measured else 'basic major '}"
-                    f"{fmt(self.app, crest)}), jaws square to the thread")
+                    f"{fmt(self.app, crest)})")
         head.append(f"\nreads {fmt(self.app, band.at_pd_max, False)} (PD max) to "
                     f"{fmt(self.app, band.at_pd_min, False)} (PD min) {u}, "
-                    f"{spec.tol_class or 'usual class'}")
+                    f"{spec.tol_class or 'usual class'}, jaws square to the thread")
         self.query_one("#cal-head", Static).update(head)
         entry = self.query_one("#thickness", LengthEntry)
         entry.prompt = f"Thickness read [{u}]: "
