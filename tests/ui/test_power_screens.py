@@ -59,7 +59,7 @@ async def test_prepare_defaults_to_the_standard_flat_and_shows_the_helix(make_ap
         # helix at d3 = d − 2h3 = 18.5 mm: atan(10/(π·18.5)) = 9.8°; the leading side needs it
         # plus 3° working clearance (side clearance rule, Machinery's Handbook, from memory)
         root = math.degrees(math.atan(10 / (math.pi * 18.5)))
-        assert f"Helix {root:.1f}° root" in text and f"leading {root + 3:.1f}°" in text
+        assert f"Helix {root:.1f}° minor" in text and f"leading {root + 3:.1f}°" in text
         fits(app)
         await typed(pilot, ".941")
         await pilot.press("enter")

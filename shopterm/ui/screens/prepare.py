@@ -207,7 +207,7 @@ class PrepareScreen(CutScreen):
         if tool is None:
             return None
         out = Text("Helix ", style="bold")
-        out.append(f"{tool.helix_minor_deg:.1f}° root, {tool.helix_major_deg:.1f}° crest · "
+        out.append(f"{tool.helix_minor_deg:.1f}° minor, {tool.helix_major_deg:.1f}° major · "
                    f"side clearance: leading {tool.leading_deg:.1f}°, trailing "
                    f"{tool.trailing_deg:.1f}°")
         return out
