@@ -250,7 +250,12 @@ def read_wires(m: Machine, sim: ThreadSim, facts: dict, unit: str, title: str) -
     text = m.wait(f"Reading {typed}")
     text = m.wait(re.compile(r"Oversize by|In the band|Undersize by|At the basic"))
     m.shot(f"wires: {title}", text)
-    out = {"typed": typed, "wire_mm": owned, "text": text, "sim_pd": sim.pitch_diameter()}
+    return what_it_says(text, unit, {"typed": typed, "wire_mm": owned, "text": text,
+                                     "sim_pd": sim.pitch_diameter()})
+
+
+def what_it_says(text: str, unit: str, out: dict) -> dict:
+    """Add to ``out`` the PD a reading screen derived, its state and the band in divisions."""
     out["pd"] = float(find(rf"→ PD {NUM} {unit}", text, "PD from the reading")[1])
     out["state"] = ("oversize" if "Oversize by" in text else "in_band" if "In the band" in text
                     else "undersize")
@@ -271,13 +276,8 @@ def read_caliper(m: Machine, sim: ThreadSim, facts: dict, unit: str, title: str)
     m.wait(f"Thickness {typed}")
     text = m.wait(re.compile(r"Oversize by|In the band|Undersize by|At the basic"))
     m.shot(f"caliper: {title}", text)
-    out = {"typed": typed, "text": text, "sim_pd": sim.pitch_diameter(), "caliper": True}
-    out["pd"] = float(find(rf"→ PD {NUM} {unit}", text, "PD from the thickness")[1])
-    out["state"] = ("oversize" if "Oversize by" in text else "in_band" if "In the band" in text
-                    else "undersize")
-    if band := re.search(r"in the band from (\d+) to (\d+) div", text):
-        out["band_divs"] = (int(band[1]), int(band[2]))
-    return out
+    return what_it_says(text, unit, {"typed": typed, "text": text,
+                                     "sim_pd": sim.pitch_diameter(), "caliper": True})
 
 
 def back_to_counter(m: Machine) -> str:
