@@ -1,4 +1,4 @@
-"""The menu of screens (``*``) and the yes/no question (undo, finish)."""
+"""The menu of screens (``*``) and the yes/no question (undo, finish, shut down)."""
 
 from __future__ import annotations
 
@@ -34,6 +34,8 @@ class MenuScreen(ModalScreen[str | None]):
         items = [(title, name) for name, (_, _, title) in REGISTRY.items()
                  if name not in NOT_IN_MENU]
         items += [("Help", "help"), ("Quit (the record is saved)", "quit")]
+        if self.app.config.shutdown_command:          # [pi] shutdown_command in the config
+            items.append(("Shut the Pi down", "shutdown"))
         with Vertical():
             yield Static("[b]Go to[/b]  (digit, or ↑↓ Enter;  * or - closes)")
             yield PickList(items, columns=1, id="menu-list")
