@@ -24,7 +24,7 @@ from shopterm.errors import ShoptermError
 from shopterm.ui import keys
 from shopterm.ui.screens.base import ShopScreen
 from shopterm.ui.screens.cutview import LengthEntry
-from shopterm.ui.screens.wires import WiresScreen
+from shopterm.ui.screens.wires import WiresScreen, feed_slide
 from shopterm.ui.screens.wireview import band_picture, fmt
 from shopterm.ui.widgets.entry import KeypadEntry
 
@@ -118,10 +118,8 @@ class CaliperScreen(ShopScreen):
         from shopterm.cutting.remaining import measure_by_caliper
         from shopterm.standards import limits
         values = self.app.setup_values()
-        angle = values.get("compound_angle_deg")
         kw = dict(lathe=self.app.lathe, resolution=self.app.shop.micrometer_resolution,
-                  unit=self.unit,
-                  compound_angle_deg=float(angle) if angle is not None else None)
+                  unit=self.unit, compound_angle_deg=feed_slide(values)[1])
         lim, crest = limits(self.app.spec), self.crest()[0]
         try:
             return measure_by_caliper(lim, thickness, crest, aim_pd=values.get("aim_pd_mm"), **kw)
@@ -131,9 +129,7 @@ class CaliperScreen(ShopScreen):
             return measure_by_caliper(lim, thickness, crest, **kw)
 
     def slide(self) -> str:
-        return "cross-slide" if self.app.setup_values().get("method") in ("radial",
-                                                                         "alternating") \
-            else "compound"
+        return feed_slide(self.app.setup_values())[0]
 
     def last_reading(self):
         """Return the caliper reading taken since the last cut, or None."""

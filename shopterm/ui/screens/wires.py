@@ -40,6 +40,18 @@ BIG_LEAD_ANGLE_DEG = 5.0
 UNIT_CHARS = set("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ\" ")
 
 
+def feed_slide(values: dict) -> tuple[str, float | None]:
+    """Return (the slide the set-up ``values`` feed with, the compound's angle or None).
+
+    Radial and alternating-flank cuts feed on the cross-slide (the alternating cut's compound
+    lies parallel to the bed, 90°, and only shifts the tool sideways: no feed angle).
+    """
+    if values.get("method") in ("radial", "alternating"):
+        return "cross-slide", None
+    angle = values.get("compound_angle_deg")
+    return "compound", (float(angle) if angle is not None else None)
+
+
 # ---- the screen -----------------------------------------------------------------------------
 
 class WiresScreen(ShopScreen):
@@ -152,10 +164,7 @@ class WiresScreen(ShopScreen):
 
     def feed_slide(self) -> tuple[str, float | None]:
         """Return (the slide the user feeds with, compound angle from the set-up or None)."""
-        values = self.app.setup_values()
-        slide = "cross-slide" if values.get("method") == "radial" else "compound"
-        angle = values.get("compound_angle_deg")
-        return slide, (float(angle) if angle is not None else None)
+        return feed_slide(self.app.setup_values())
 
     def measure(self, readings: list[float], wire: float):
         """Return the core's Measurement of ``readings`` [mm] over ``wire`` [mm] (raises if refused)."""
