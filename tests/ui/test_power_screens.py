@@ -132,6 +132,16 @@ async def test_alternating_flank_passes_show_the_side_shift(make_app):
         assert sides == ["right", "left", "right"]
         assert len(app.state.passes) == 3
         assert {p.payload["side"] for p in app.state.passes} == {"left", "right"}
+        # measured now (no owned wire fits 5 mm pitch: the caliper): the alternating cut feeds
+        # on the cross-slide; its compound, parallel to the bed, is no feed angle
+        await pilot.press("plus")
+        await pilot.pause()
+        await typed(pilot, ".1")
+        await pilot.press("enter")
+        text = screen_text(app)
+        assert len(app.state.readings) == 1, text
+        assert "divisions more on the cross-slide" in text and "Oversize by" in text
+        fits(app)
 
 
 async def test_no_wire_fits_so_the_caliper_takes_the_reading(make_app):
