@@ -4,7 +4,9 @@
 
 Each job names the thread, how it is chosen on the thread screen (a list of (heading, label)
 picks: the list walk, a favourite of the demo config), the starts, the display units and the
-blank's OD as typed. The set-up answers are the same for every job.
+blank's OD as typed. The set-up answers are the same for every job. A power thread's job also
+gives its form angle, any wire set the shop adds to the demo config for it, and how it is
+measured: over wires, or with a gear-tooth caliper when no wire the shop owns fits.
 """
 
 from __future__ import annotations
@@ -30,6 +32,9 @@ class KeypadJob:
     od_typed: str                               # the blank's OD as typed [display unit]
     band: tuple[float, float]                   # PD min, max [display unit]
     export_from_screen: bool
+    angle: float = 60.0                         # the form's included angle [deg]
+    wires: tuple[str, ...] = ()                 # wire sets added to the demo config
+    measure: str = "wires"                      # 'wires' or 'caliper'
 
 
 M10_6G = (8.862, 8.994)        # ISO 965-2, M10x1.5-6g d2 min / max
@@ -40,10 +45,29 @@ M10_WALK = (("Thread family", "ISO metric"), ("Common sizes", "M10x1.5-6g"))
 #: 3/8-16 UNC-2A as a favourite of the demo config (sample_config.toml [favourites]).
 UNC_FAVOURITE = (("Thread family", "3/8-16 UNC-2A"),)
 
+#: Tr24x5 by the list walk (the two starts are set on the thread's options).
+TR24_WALK = (("Thread family", "Leadscrew: trapezoidal, Acme"), ("Series", "Tr"),
+             ("Size", "Tr24"), ("Pitch", "5 mm"))
+#: 1-5 ACME by the list walk: the size's one pitch is taken at once.
+ACME_WALK = (("Thread family", "Leadscrew: trapezoidal, Acme"), ("Series", "ACME"),
+             ("Size", "1"))
+# ISO 2903, Tr24x10(P5)-7e d2 limits as this project computes them from the remembered
+# tolerance formula with the multi-start factor (from memory, not checked against a print)
+TR24_10_7E = (21.058, 21.394)
+# ASME B1.5, 1-5 ACME-2G pitch diameter min / max (from memory: 0.8726 / 0.8920 in)
+ACME_2G = (0.8726, 0.8920)
+
 JOBS = (
     KeypadJob("M10x1.5-6g", "mm", M10_WALK, 1, "M10x1.5-6g", "9.95", M10_6G, True),
     KeypadJob("3/8-16 UNC-2A", "in", UNC_FAVOURITE, 1, "3/8-16 UNC-2A", "0.3730", UNC_2A, False),
     KeypadJob("M10x1.5 two starts", "mm", M10_WALK, 2, "M10", "9.95", M10_6G, False),
+    # a 3-wire set of 2.5 mm, as a shop cutting 5 mm trapezoidal screws would own
+    # (the best size for 5 mm pitch at 30°, 0.5176P = 2.588 mm, common practice, no source)
+    KeypadJob("Tr24x10(P5) two starts", "mm", TR24_WALK, 2, "Tr24x10(P5)-7e", "23.9",
+              TR24_10_7E, True, angle=30.0, wires=("2.5 mm",)),
+    # the demo config owns no wire for 5 tpi Acme (0.0975 to 0.130 in): a gear-tooth caliper
+    KeypadJob("1-5 ACME-2G", "in", ACME_WALK, 1, "1-5 ACME-2G", "0.995", ACME_2G, False,
+              angle=29.0, measure="caliper"),
 )
 
 #: The set-up questions after the change gears (the best train, "1"), with the answer picked.
@@ -51,18 +75,39 @@ SETUP_ANSWERS = (("how is the work held?", "in a chuck"),
                  ("where does the tool run out", "into a relief groove (undercut)"))
 
 
+#: A gear-tooth vernier's step [mm]: 0.0005 in (common practice, no source).
+CALIPER_STEP_MM = 0.0005 * INCH
+
+#: The power thread's flat, as the preparation names it ("3 flat width 1.696 mm").
+FLAT_SHOWN = re.compile(r"3 flat width (\d+(?:\.\d+)?) (mm|in)")
+
+
+def sim_tip(job: KeypadJob, facts: dict, prepare_text: str) -> tuple[str, float]:
+    """Return (kind, size [mm]) of the tip the operator cuts with: a power thread's flat ground
+    to the width the preparation names (as the compound angle, it is set as the screen says),
+    else the config's tip."""
+    if job.angle not in (29.0, 30.0):
+        return facts["tip_kind"], facts["tip_mm"]
+    m = FLAT_SHOWN.search(prepare_text)
+    assert m, prepare_text
+    return "flat", float(m[1]) * (INCH if m[2] == "in" else 1.0)
+
+
 def job(name: str) -> KeypadJob:
     return next(j for j in JOBS if j.name == name)
 
 
-def demo_config(tmp: Path, units: str) -> Path:
+def demo_config(tmp: Path, units: str, wires: tuple[str, ...] = ()) -> Path:
     """Return the sample config (the demo lathe) with the display in ``units`` and a micrometer
-    that reads 0.001 mm (metric) or 0.0001 in (inch), as a shop with either would have."""
+    that reads 0.001 mm (metric) or 0.0001 in (inch), as a shop with either would have, and
+    the wire sets ``wires`` (marked sizes such as ``"2.5 mm"``) added to its own."""
     text = SAMPLE.read_text(encoding="utf-8")
     text = re.sub(r'(?m)^units = "\w+"', f'units = "{units}"', text, count=1)
     res = '"0.001 mm"' if units == "mm" else '"0.0001 in"'
     text = re.sub(r'(?m)^resolution = "[^"]*"', f"resolution = {res}", text, count=1)
-    path = tmp / f"demo-{units}.toml"
+    for w in wires:
+        text = text.replace("[micrometer]", f'[[wires]]\nmarked = "{w}"\n\n[micrometer]', 1)
+    path = tmp / f"demo-{units}{'-' + '-'.join(wires).replace(' ', '') if wires else ''}.toml"
     path.write_text(text, encoding="utf-8")
     return path
 

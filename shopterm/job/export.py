@@ -241,7 +241,8 @@ def job_card(events: Sequence[Event], status: str | None = None) -> str:
     add(f"Wire readings ({len(s.readings)})")
     for r in s.readings:
         wire = f", wire {_len(r.wire_mm, unit)}" if r.wire_mm else ""
-        add(f"  {_time(r.at):<8}  over wires {_len(r.measured_mm, unit)}{wire}, "
+        how = ("caliper thickness" if r.payload.get("method") == "caliper" else "over wires")
+        add(f"  {_time(r.at):<8}  {how} {_len(r.measured_mm, unit)}{wire}, "
             f"PD {_len(r.pd_mm, unit)}: {r.state}")
     add("")
     last = s.last_reading

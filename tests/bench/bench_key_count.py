@@ -97,12 +97,13 @@ class Replay:
 
 async def replay_job(job, workdir: Path) -> dict:
     """Cut the job to its first passes and one reading; return the keys counted."""
-    from tests.keypad_jobs import SETUP_ANSWERS, demo_config, lathe_facts
+    from tests.keypad_jobs import (CALIPER_STEP_MM, SETUP_ANSWERS, demo_config, lathe_facts,
+                                   sim_tip)
     from shopterm.config import load_config
     from shopterm.ui.app import ShoptermApp
     from tests.e2e.thread_sim import ThreadSim
 
-    path = demo_config(workdir, job.units)
+    path = demo_config(workdir, job.units, job.wires)
     facts = lathe_facts(path)
     app = ShoptermApp(load_config(path), data_dir=workdir / f"record-{job.units}-{job.starts}")
     async with app.run_test(size=(80, 24)) as pilot:
@@ -140,7 +141,7 @@ async def replay_job(job, workdir: Path) -> dict:
         await r.until(lambda t: "Prepare " in t and "OD measured" in t and "\u2588" in t,
                       "the counter's OD entry, with the cursor")
         await r.press(job.od_typed, "enter")
-        await r.until("Measured ", "the OD taken")
+        prepared = await r.until("Measured ", "the OD taken")
         await r.press("enter")
         await r.until(PASS_OF, "pass 1 shown")
         r.mark("prepare")
@@ -160,22 +161,30 @@ async def replay_job(job, workdir: Path) -> dict:
             per_pass.append(r.count - before)
         r.mark("passes")
         await r.press("+")
-        text = await r.until("Reading over wires", "the wire screen")
-        r.mark("to_wires")
         unit = job.units
-        num = re.search(rf"wire (\d+(?:\.\d+)?) {unit}\b", text)
-        assert num, text
-        shown_mm = float(num[1]) * (25.4 if unit == "in" else 1.0)
-        wire_mm = min(facts["wires_mm"], key=lambda w: abs(w - shown_mm))
-        lead_mm = app.spec.lead
-        sim = ThreadSim(float(job.od_typed) * (25.4 if unit == "in" else 1.0), app.spec.pitch,
-                        lead_mm, 60.0, facts["tip_kind"], facts["tip_mm"],
-                        facts["resolution_mm"], unit)
+        to_mm = 25.4 if unit == "in" else 1.0
+        tip_kind, tip_mm = sim_tip(job, facts, prepared)
+        sim = ThreadSim(float(job.od_typed) * to_mm, app.spec.pitch, app.spec.lead, job.angle,
+                        tip_kind, tip_mm, facts["resolution_mm"], unit,
+                        "h28" if job.angle == 60.0 else "helical")
         sim.cut_to(app.state.passes[-1].radial_cum_mm)
-        typed = sim.typed(wire_mm)
+        if job.measure == "caliper":
+            text = await r.until("Thickness read", "the caliper screen")
+            depth = re.search(rf"Depth slide (\d+(?:\.\d+)?) {unit}\b", text)
+            assert depth, text
+            typed = sim.caliper_typed(float(depth[1]) * to_mm, CALIPER_STEP_MM)
+            taken = f"Thickness {typed}"
+        else:
+            text = await r.until("Reading over wires", "the wire screen")
+            num = re.search(rf"wire (\d+(?:\.\d+)?) {unit}\b", text)
+            assert num, text
+            shown_mm = float(num[1]) * to_mm
+            typed = sim.typed(min(facts["wires_mm"], key=lambda w: abs(w - shown_mm)))
+            taken = f"Reading {typed}"
+        r.mark("to_wires")
         readings = len(app.state.readings) if hasattr(app.state, "readings") else None
         await r.press(typed, "enter")
-        await r.until(f"Reading {typed}", "the reading taken")
+        await r.until(taken, "the reading taken")
         if readings is not None:
             assert len(app.state.readings) == readings + 1
         r.mark("reading")

@@ -11,6 +11,7 @@ REGISTRY: dict[str, tuple[str, str, str]] = {
     "pickup": ("shopterm.ui.screens.pickup", "PickupScreen", "Pick up the thread"),
     "wires": ("shopterm.ui.screens.wires", "WiresScreen", "Wire reading"),
     "wirechoice": ("shopterm.ui.screens.wirechoice", "WireChoiceScreen", "Choose the wire"),
+    "caliper": ("shopterm.ui.screens.caliper", "CaliperScreen", "Caliper reading"),
     "fitcheck": ("shopterm.ui.screens.fitcheck", "FitCheckScreen", "Fit check"),
     "toolform": ("shopterm.ui.screens.toolform", "ToolFormScreen", "Tool form"),
     "identify": ("shopterm.ui.screens.identify", "IdentifyScreen", "What thread is this?"),

@@ -16,9 +16,10 @@ from shopterm.ui.widgets.picklist import PickList
 #: entries, one digit each): the tool form opens from the pass counter (8), the pick-up from
 #: the counter (1), the wire choice from the wire screen (Enter on an empty entry); the
 #: preparation is where "Pass counter" goes until the cut is prepared, the fit check where
-#: "Wire reading" goes for an internal thread; cutting to fit a sample opens from a candidate
-#: on "What thread is this?", the special thread's entry from the "Special thread" family.
-NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "fitsample",
+#: "Wire reading" goes for an internal thread, the gear-tooth caliper where a power thread is
+#: measured with one; cutting to fit a sample opens from a candidate on "What thread is this?",
+#: the special thread's entry from the "Special thread" family.
+NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "caliper", "fitsample",
                "special")
 
 
