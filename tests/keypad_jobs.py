@@ -45,12 +45,10 @@ M10_WALK = (("Thread family", "ISO metric"), ("Common sizes", "M10x1.5-6g"))
 #: 3/8-16 UNC-2A as a favourite of the demo config (sample_config.toml [favourites]).
 UNC_FAVOURITE = (("Thread family", "3/8-16 UNC-2A"),)
 
-#: Tr24x5 by the list walk (the two starts are set on the thread's options).
-TR24_WALK = (("Thread family", "Leadscrew: trapezoidal, Acme"), ("Series", "Tr"),
-             ("Size", "Tr24"), ("Pitch", "5 mm"))
-#: 1-5 ACME by the list walk: the size's one pitch is taken at once.
-ACME_WALK = (("Thread family", "Leadscrew: trapezoidal, Acme"), ("Series", "ACME"),
-             ("Size", "1"))
+#: Tr24x5 from the leadscrew group's common sizes (the two starts are set on the thread's options).
+TR24_WALK = (("Thread family", "Leadscrew: trapezoidal, Acme"), ("Common sizes", "Tr24x5-7e"))
+#: 1-5 ACME from the leadscrew group's common sizes.
+ACME_WALK = (("Thread family", "Leadscrew: trapezoidal, Acme"), ("Common sizes", "1-5 ACME-2G"))
 # ISO 2903, Tr24x10(P5)-7e d2 limits as this project computes them from the remembered
 # tolerance formula with the multi-start factor (from memory, not checked against a print)
 TR24_10_7E = (21.058, 21.394)
