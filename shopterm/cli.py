@@ -43,6 +43,14 @@ def build_parser(with_commands: bool = True) -> argparse.ArgumentParser:
     parser.add_argument("--check-config", nargs="?", const="", metavar="PATH",
                         help="validate a config file (default: the one that would be used); "
                              "exit 0 if good, 2 if not")
+    parser.add_argument("--pi-boot", nargs="?", const="unit", choices=("unit", "getty", "profile"),
+                        metavar="unit|getty|profile",
+                        help="print a file that starts shopterm at boot on a Raspberry Pi's "
+                             "console: the systemd unit (default), or the autologin drop-in "
+                             "and login-shell snippet (see README)")
+    parser.add_argument("--profile-start", action="store_true",
+                        help="start, stop at the first screen, and print where the start-up "
+                             "time went (one line per phase, in ms)")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     if not with_commands:
         return parser
@@ -58,7 +66,7 @@ def build_parser(with_commands: bool = True) -> argparse.ArgumentParser:
     return parser
 
 
-_TAKES_VALUE = ("--config", "--data-dir", "--check-config")
+_TAKES_VALUE = ("--config", "--data-dir", "--check-config", "--pi-boot")
 
 
 def _wants_command(argv: list[str]) -> bool:
@@ -86,6 +94,9 @@ def main(argv: list[str] | None = None) -> int:
         if args.check_config is not None:
             from shopterm.config import check_config_command
             return check_config_command(args.check_config or args.config or None)
+        if args.pi_boot is not None:
+            from shopterm.pi import print_boot_file
+            return print_boot_file(args.pi_boot)
         if args.command is None:
             return _run_app(args)
         return int(args.func(args) or 0)
@@ -104,6 +115,9 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def _run_app(args) -> int:
+    if args.profile_start:
+        from shopterm.startprofile import profile_start
+        return profile_start(config_path=args.config, data_dir=args.data_dir)
     from shopterm.ui.app import run_app
     return run_app(config_path=args.config, data_dir=args.data_dir)
 

@@ -56,6 +56,8 @@ class Config:
     theme_dirs: tuple[Path, ...] = ()     # extra theme folders the config names (display.theme_dir)
     favourites: tuple[str, ...] = ()      # designations as the standards print them
     problems: tuple[str, ...] = ()        # mistakes that cost one entry only (a bad favourite)
+    #: [pi] shutdown_command, split into words: the menu offers "Shut the Pi down" when set
+    shutdown_command: tuple[str, ...] = ()
 
 
 # ---------------------------------------------------------------------------------------------
@@ -433,7 +435,7 @@ class _Reader:
 # The sections
 
 _TOP = ("display", "lathe", "leadscrew", "gear_train", "change_gears", "gearbox", "cross_slide",
-        "compound", "thread_dial", "wires", "micrometer", "tool", "indexing", "favourites")
+        "compound", "thread_dial", "wires", "micrometer", "tool", "indexing", "favourites", "pi")
 _TOP += ("tailstock", "taper_attachment")     # the taper set-up (``_taper_kit``)
 
 
@@ -515,7 +517,8 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     if side_clearance is not None:
         shop_kw["tool_side_clearance_deg"] = side_clearance
     return Config(lathe=lathe, shop=Shop(**shop_kw), path=path, how_found=how_found,
-                  theme_dirs=theme_dirs, favourites=favourites, problems=problems)
+                  theme_dirs=theme_dirs, favourites=favourites, problems=problems,
+                  shutdown_command=_pi(r, r.table((), data, "pi")))
 
 
 def _favourites(r: _Reader, t: dict | None) -> tuple[tuple[str, ...], tuple[str, ...]]:
@@ -723,6 +726,23 @@ def _tool(r: _Reader, t: dict | None) -> tuple[ToolTip | None, float | None]:
     kind, key = ("radius", "nose_radius") if "nose_radius" in t else ("flat", "flat")
     size = r.length_mm(w, t, key, allow_zero=True, what="tool tip size", example='"0.1 mm"')
     return ToolTip(kind, size), side
+
+
+def _pi(r: _Reader, t: dict | None) -> tuple[str, ...]:
+    if not t:
+        return ()
+    w = ("pi",)
+    r.keys(w, t, ("shutdown_command",))
+    text = r.string(w, t, "shutdown_command", example='"systemctl poweroff"')
+    if text is None:
+        return ()
+    import shlex      # here: only a config with [pi] pays for it at start-up
+    try:
+        words = tuple(shlex.split(text))
+    except ValueError as exc:
+        raise r.error(w + ("shutdown_command",), f"the shutdown command cannot be read ({exc}); "
+                      "write it as on a command line, e.g. \"systemctl poweroff\".") from None
+    return words
 
 
 # ---------------------------------------------------------------------------------------------

@@ -7,20 +7,19 @@ install or running from the source tree) they sit at the repository root.
 
 from __future__ import annotations
 
-from importlib import resources
 from pathlib import Path
 
-_REPO_ROOT = Path(__file__).resolve().parent.parent
+# The package folder itself (what ``importlib.resources.files("shopterm")`` gives for a package
+# installed as files; importing ``importlib.resources`` cost ~2 ms of start-up for this).
+_PACKAGE = Path(__file__).resolve().parent
+_REPO_ROOT = _PACKAGE.parent
 
 
 def _bundled(name: str, want_dir: bool) -> Path:
     """Return the path of a bundled file or folder: inside the package, else the repo root."""
-    try:
-        inside = resources.files("shopterm") / name
-        if isinstance(inside, Path) and (inside.is_dir() if want_dir else inside.is_file()):
-            return inside
-    except (ModuleNotFoundError, OSError):       # pragma: no cover - unusual installs
-        pass
+    inside = _PACKAGE / name
+    if inside.is_dir() if want_dir else inside.is_file():
+        return inside
     return _REPO_ROOT / name
 
 

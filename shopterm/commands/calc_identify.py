@@ -13,8 +13,8 @@ def register(subparsers) -> None:
         "identify", help="which thread is this? (from measurements)",
         description="Rank the standard threads against what was measured: the major diameter "
                     "of a bolt or the minor diameter of a nut (calipers), the pitch (gauge in mm "
-                    "or tpi, or a count over a length), optionally the flank angle and readings "
-                    "over wires. Lengths in mm unless typed with 'in'.")
+                    "or tpi, or a count over a length), optionally the flank angle, the crest flat, "
+                    "a taper and readings over wires. Lengths in mm unless typed with 'in'.")
     p.add_argument("--major", metavar="D", help="major diameter (a bolt's crests)")
     p.add_argument("--minor", metavar="D", help="minor diameter (a nut's crests; a bolt's root "
                                                 "when --major is given too)")
@@ -29,6 +29,9 @@ def register(subparsers) -> None:
                    "47.5, 30 (trapezoidal), 29 (Acme), 0 (square)")
     p.add_argument("--crest-flat", metavar="F", dest="crest_flat",
                    help="width of a bolt's crest flat (0 for a rounded crest)")
+    p.add_argument("--taper", metavar="D1,D2,L",
+                   help="crest diameter at two places and the distance between them, e.g. "
+                        "21,20.375,10: tells a tapered pipe thread (R, NPT) from a parallel one (G)")
     p.add_argument("--wire", metavar="W", action="append", default=[],
                    help="wire size used for an --over-wires reading (repeat for two sizes)")
     p.add_argument("--over-wires", metavar="M", action="append", default=[], dest="over_wires",
@@ -51,6 +54,19 @@ def _whole(text: str | None, flag: str) -> int | None:
         return int(str(text).strip())
     except ValueError:
         raise InvalidEntry(f"{flag} {text!r}: give a whole number, e.g. {flag} 10.") from None
+
+
+def _taper(text: str | None) -> tuple[float, float, float] | None:
+    if text is None:
+        return None
+    parts = [t for t in str(text).replace(";", ",").split(",")]
+    if len(parts) != 3:
+        raise InvalidEntry(f"--taper {text!r}: give two crest diameters and the distance "
+                           "between them, e.g. --taper 21,20.375,10.")
+    names = ("first diameter of the taper", "second diameter of the taper",
+             "distance between the two diameters")
+    d1, d2, apart = (parse_positive_length(t, "mm", what) for t, what in zip(parts, names))
+    return d1, d2, apart
 
 
 def identification_dict(result: Identification) -> dict:
@@ -90,7 +106,8 @@ def run(args) -> int:
         counted=args.counted,
         angle=None if args.angle is None else parse_number(args.angle),
         wires=wires, kind=args.kind, limit=limit if limit is not None else 8,
-        crest_flat=None if args.crest_flat is None else parse_length(args.crest_flat, "mm"))
+        crest_flat=None if args.crest_flat is None else parse_length(args.crest_flat, "mm"),
+        taper=_taper(args.taper))
     if args.json:
         emit_json(identification_dict(result))
         return 0

@@ -13,10 +13,10 @@ import sys
 from shopterm.commands import add_json_option, add_units_option, emit_json, length_out, print_table
 from shopterm.cutting.remaining import default_compound_angle, fit_check_offer, measure
 from shopterm.cutting.wires import (band_over_wires, caliper_band, check_wire, choose_wire,
-                                    is_power_form, require_wire)
+                                    is_power_form, require_wire, SQUARE_MEASURE)
 from shopterm.errors import InvalidEntry
 from shopterm.standards import limits as thread_limits
-from shopterm.standards import parse
+from shopterm.standards import parse, usual_class
 from shopterm.units import DEFAULT_RESOLUTION, format_length, parse_length, parse_number
 
 
@@ -55,7 +55,12 @@ def run(args) -> int:
     if not spec.is_external:
         raise InvalidEntry(fit_check_offer(spec).message)
     lim = thread_limits(spec)
-    basic_only = spec.tol_class is None and spec.family != "pipe"   # pipe: one tolerance, no class
+    power = is_power_form(spec.form)
+    if spec.form.angle_deg <= 0:
+        raise InvalidEntry(SQUARE_MEASURE)
+    # No class given: a pipe thread has one tolerance, a trapezoidal or Acme thread is measured
+    # to its usual class (7e, 2G: the limits say so); any other is measured to its basic size.
+    basic_only = spec.tol_class is None and spec.family != "pipe" and not power
     if basic_only:                 # basic size only: the band is the basic pitch diameter
         lim = dataclasses.replace(lim, pd_max=lim.basic_pd, pd_min=lim.basic_pd)
     native = spec.native_unit
@@ -90,7 +95,7 @@ def run(args) -> int:
         if wire_ok else None
     # Power threads: the thickness at the pitch line, for a gear-tooth caliper (no wire needed).
     caliper = caliper_band(spec.form, spec.pitch, spec.lead, lim.pd_max, lim.pd_min,
-                           lim.basic_major, lim.basic_pd) if is_power_form(spec.form) else None
+                           lim.basic_major, lim.basic_pd) if power else None
 
     def L(v):
         return length_out(v, unit)
@@ -143,8 +148,10 @@ def run(args) -> int:
     def f(v):
         return format_length(v, unit, res, suffix=False)
 
+    usual = usual_class(spec) if power and spec.tol_class is None else None
     band_text = ("basic size" if basic_only else
-                 f"{spec.tol_class or ('at the gauge plane' if lim.taper else 'limits')}: "
+                 f"{spec.tol_class or usual or ('at the gauge plane' if lim.taper else 'limits')}"
+                 f"{' (no class given)' if usual else ''}: "
                  f"{f(lim.pd_max)} to {f(lim.pd_min)}")
     print(f"{spec.designation}  ({spec.form.angle_deg:g}° form, pitch diameter {band_text})  "
           f"[{unit}]")

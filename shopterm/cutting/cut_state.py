@@ -20,7 +20,9 @@ from shopterm.cutting.pickup import DialZero, new_zero
 from shopterm.cutting.plan import (PLAN_KINDS, Plan, dial_reading, make_plan, pass_view,
                                    replan)
 from shopterm.cutting.taper_thread import tapered_tool_depth
-from shopterm.cutting.tool import ToolCheck, ToolDepth, check_tool, tool_depth
+from shopterm.cutting.tool import (ToolCheck, ToolDepth, check_tool, power_tool, standard_tip,
+                                   tool_depth)
+from shopterm.cutting.wires import is_power_form
 from shopterm.errors import InvalidEntry
 from shopterm.lathe.machine import Dial, ToolTip
 from shopterm.standards import limits as thread_limits
@@ -122,14 +124,19 @@ class Cut:
                 + f" · then {len(self.plan.spring_passes)} spring")
 
 
-def default_draft(shop_tool: ToolTip, setup: dict) -> dict:
+def default_draft(shop_tool: ToolTip, setup: dict, limits=None) -> dict:
     """Return the preparation values to start from: the set-up in force over the defaults.
 
-    shop_tool: the config's tool tip; setup: the set-up in force (``app.setup_values()``).
-    ``tip_from`` says where the tip came from ('config' or 'set-up').
+    shop_tool: the config's tool tip; setup: the set-up in force (``app.setup_values()``);
+    limits: the thread's, when known: a power thread (trapezoidal, Acme, square) starts from
+    the standard's flat tip (``tool.standard_tip``), not the config's tip.
+    ``tip_from`` says where the tip came from ('config', 'standard' or 'set-up').
     """
-    d = {"blank_od_mm": None, "tool_kind": shop_tool.kind, "tool_size_mm": shop_tool.size,
-         "tip_from": "config", "method": "modified", "plan": "constant-area", "passes": None,
+    tip, tip_from = shop_tool, "config"
+    if limits is not None and is_power_form(limits.spec.form):
+        tip, tip_from = standard_tip(limits), "standard"
+    d = {"blank_od_mm": None, "tool_kind": tip.kind, "tool_size_mm": tip.size,
+         "tip_from": tip_from, "method": "modified", "plan": "constant-area", "passes": None,
          "spring_passes": 1}
     for k in ("blank_od_mm", "tool_kind", "tool_size_mm", "method", "plan", "passes",
               "spring_passes"):
@@ -161,9 +168,28 @@ def prepare(spec, lathe, values: dict):
                            internal=not spec.is_external, hand=spec.hand)
     plan = make_plan(depth.total_radial, method, lathe=lathe, kind=values["plan"],
                      passes=values.get("passes"), spring=int(values.get("spring_passes", 1)),
-                     internal=not spec.is_external)
+                     internal=not spec.is_external, flat_bottom=flat_bottom(lim, tip))
     check = check_tool(lim, tip, depth.aim_pd, turned_diameter=depth.turned_diameter)
     return lim, depth, method, plan, check
+
+
+def flat_bottom(limits, tip: ToolTip) -> float:
+    """Return the flat [mm] a power thread's groove is cut with (its plan keeps the groove's
+    true chip area: ``plan.make_plan(flat_bottom=)``), 0 for any other thread or tip."""
+    return tip.size if tip.kind == "flat" and is_power_form(limits.spec.form) else 0.0
+
+
+def power_tool_for(limits, values: dict, max_side_clearance_deg: float, aim_pd=None):
+    """Return the ``PowerTool`` for a power thread's preparation values, None for another form.
+
+    values: ``tool_kind``, ``tool_size_mm`` [mm]; max_side_clearance_deg: the config's
+    ``[tool] side_clearance``. Raises InvalidEntry as ``tool.power_tool`` (a nose radius, a flat
+    too wide, a lead too steep for the tool).
+    """
+    if not is_power_form(limits.spec.form):
+        return None
+    return power_tool(limits, ToolTip(values["tool_kind"], float(values["tool_size_mm"])),
+                      aim_pd=aim_pd, max_side_clearance_deg=max_side_clearance_deg)
 
 
 def turned_depth(lim, values: dict, measured: float, tip: ToolTip) -> ToolDepth:
@@ -270,7 +296,8 @@ def cut_from_record(spec, lathe, state) -> Cut:
             else:
                 plan = make_plan(depth.total_radial, method, lathe=lathe, kind=values["plan"],
                                  passes=n, spring=int(values.get("spring_passes", 1)),
-                                 internal=not spec.is_external, start_radial=done_radial)
+                                 internal=not spec.is_external, start_radial=done_radial,
+                                 flat_bottom=flat_bottom(lim, tip))
             replanned = "a changed set-up"
         offset, start_seq = len(before), seq
     last_seq = passes[-1].seq if passes else 0

@@ -95,6 +95,18 @@ def _amount(value, what: str, *, zero_ok: bool) -> float:
     return float(value)
 
 
+def check_sample_thread(thread: ThreadSpec) -> None:
+    """Raise ``InvalidEntry`` if ``thread`` cannot be cut to a sample here: a tapered thread
+    (ISO 7-1 R/Rc, NPT), whose fit is made along its taper (a hand-tight check at the gauge
+    plane, ``taper_thread.hand_tight_check``), not by one pitch-diameter band.
+    References: ISO 7-1 and ASME B1.20.1 (gauging at the gauge plane).
+    """
+    if thread_limits(thread.with_(kind="external")).taper is not None:
+        raise InvalidEntry(f"{thread.with_(tol_class=None).designation} is a tapered thread: "
+                           "it fits along its taper, not to one pitch diameter. Cut it to its "
+                           "standard and check it hand-tight against the fitting.")
+
+
 def sample_pitch_diameter(thread: ThreadSpec, wire: float, readings: float | Sequence[float],
                           resolution: float = DEFAULT_RESOLUTION) -> tuple[PitchFromWires, str]:
     """Return the sample bolt's pitch diameter from readings over wires, and a spread warning.
@@ -132,6 +144,7 @@ def target_from_sample(thread: ThreadSpec, cut: Kind, *, sample_pd: float | None
     if cut not in ("external", "internal"):
         raise InvalidEntry(f"{cut!r} is not a kind of thread: say whether a bolt (external) or a "
                            "nut (internal) is being cut.")
+    check_sample_thread(thread)
     if (sample_pd is None) == (readings is None):
         raise InvalidEntry("Give the sample's pitch diameter, or the wire size and the reading "
                            "over wires on the sample bolt, not both.")

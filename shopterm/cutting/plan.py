@@ -482,6 +482,9 @@ class PassView:
     progress: float            # 0 … 1
     next_step: str
     cautions: tuple[str, ...]
+    side: str | None = None    # alternating: the way the compound moves for this pass
+    side_mark: float | None = None  # alternating: the compound's mark to set
+    side_shift: float = 0.0    # alternating: the compound's offset from its zero [mm], + right
 
 
 def dial_reading(count: float, dial: Dial, zero: float = 0.0) -> tuple[int, float]:
@@ -534,11 +537,10 @@ def pass_view(plan: Plan, done: int, *, feed_zero: float = 0.0, cross_zero: floa
     count = p.dial_divisions if p else 0.0
     turns, mark = dial_reading(count, plan.feed_dial, feed_zero)
     text = _reading_text(turns, mark, plan.dial_step)
-    side_text = None
+    side_text = sm = None
     if method.method == "alternating" and p is not None and plan.side_dial is not None:
-        st, sm = dial_reading(p.side_divisions or 0.0, plan.side_dial, side_zero)
-        side_text = (f"compound {_reading_text(st, sm, plan.dial_step)} "
-                     f"({p.side}, {abs(p.compound_cum):.3f} mm from its zero)")
+        _st, sm = dial_reading(p.side_divisions or 0.0, plan.side_dial, side_zero)
+        side_text = f"shift the compound {p.side} to {_reading_text(0, sm, plan.dial_step)}"
     if slide == "compound":
         rt, rm = dial_reading(0.0, plan.cross_dial, cross_zero)
         return_text = f"cross-slide back to {_reading_text(rt, rm, plan.dial_step)} every pass"
@@ -556,12 +558,13 @@ def pass_view(plan: Plan, done: int, *, feed_zero: float = 0.0, cross_zero: floa
                 else f"pass {passes_before + n} of {passes_before + total_n}")
         first = "Read the cautions; then " if before_first else ""
         next_step = (f"{first}set the {slide} to {text}"
-                     + (f" and the {side_text}" if side_text else "") + f", cut {what}.")
+                     + (f", {side_text}" if side_text else "") + f", cut {what}.")
     cautions = plan.cautions if before_first else tuple(c for c in plan.cautions
                                                         if "past its limit" in c)
     return PassView(n, total_n, kind, slide, count, turns, mark, text, side_text, rt, rm,
                     return_text, depth_done, max(depth_total - depth_done, 0.0), depth_total,
-                    progress, next_step, cautions)
+                    progress, next_step, cautions, p.side if sm is not None else None, sm,
+                    p.compound_cum if sm is not None else 0.0)
 
 
 # ---------------------------------------------------------------------------------------------

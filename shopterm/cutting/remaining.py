@@ -24,9 +24,11 @@ from shopterm.lathe.machine import Dial, Lathe
 from shopterm.standards.forms import ThreadForm
 from shopterm.standards.spec import Limits, ThreadSpec
 from shopterm.units import Unit, format_length
-from shopterm.cutting.wires import (MEASURE_CAUTION, PitchFromWires, Readings, WireBand,
-                                    band_over_wires, check_reading, over_wires_exact,
-                                    read_pitch_diameter, require_wire, summarise_readings)
+from shopterm.cutting.wires import (MEASURE_CAUTION, CaliperBand, PitchFromWires, Readings,
+                                    WireBand, band_over_wires, caliper_band, check_reading,
+                                    is_power_form, over_wires_exact, pd_from_thickness,
+                                    read_pitch_diameter, require_wire, summarise_readings,
+                                    thread_thickness, wire_range)
 
 State = Literal["oversize", "in_band", "undersize"]
 Slide = Literal["cross-slide", "compound"]
@@ -431,3 +433,65 @@ def record_fit_check(against: str, outcome: str, note: str = "") -> FitCheck:
                            + ", ".join(o.replace("_", " ") for o in table) + ".")
     state, message = table[outcome]
     return FitCheck(against, outcome, state, message, note)
+
+
+# ---- a power thread measured with a gear-tooth caliper ---------------------------------------
+
+@dataclass(frozen=True)
+class CaliperMeasurement:
+    """What a gear-tooth caliper's thickness says, as a wire reading would say it.
+
+    Lengths [mm]. ``measurement`` is the same answer as ``measure`` gives for a reading over
+    wires (state, what is left, dial settings); its wire figures stand for the pitch diameter
+    found here and are not to be shown as readings.
+    """
+
+    thickness: float            # as read (square to the thread when ``band.normal``)
+    band: CaliperBand           # the depth slide and the thicknesses at the ends of the band
+    pitch_diameter: float
+    measurement: Measurement
+    form: ThreadForm
+    pitch: float                # [mm]
+    lead: float                 # [mm]
+
+    def thickness_at(self, pd: float) -> float:
+        """Return the thickness [mm] the caliper would read at pitch diameter ``pd`` [mm]."""
+        return thread_thickness(pd, self.form, self.pitch, self.band.level_diameter,
+                                self.lead, self.band.normal)
+
+
+def measure_by_caliper(limits: Limits, thickness: float, crest_diameter: float, *,
+                       lathe: Lathe | None = None, compound_angle_deg: float | None = None,
+                       aim_pd: float | None = None, resolution: float = 0.001,
+                       unit: Unit | None = None, dial_step: float = 1.0) -> CaliperMeasurement:
+    """Return the pitch diameter from a thread thickness read with a gear-tooth caliper, and what
+    is left to feed, for a trapezoidal or Acme thread.
+
+    limits: the thread's (a 30° or 29° form, external); thickness [mm]: read square to the
+    thread with the depth slide set to ``caliper_band``'s depth from the crest; crest_diameter
+    [mm]: the turned major, as measured; the rest as ``measure``. The pitch diameter comes from
+    ``pd_from_thickness``; it is then stood for by the reading over the best-size wire that
+    would give it (exact model, so the round trip is exact) and judged by ``measure``, so the
+    state, the band and the dial settings are the wire screen's own.
+    References: gear-tooth caliper on an Acme thread (Machinery's Handbook, from memory); as
+    ``measure``.
+    """
+    spec = limits.spec
+    form, pitch, lead = spec.form, spec.pitch, spec.lead
+    if not is_power_form(form) or form.angle_deg <= 0:
+        raise InvalidEntry("A gear-tooth caliper reading is for trapezoidal and Acme threads.")
+    if not spec.is_external:
+        raise InvalidEntry(fit_check_offer(spec).message)
+    band = caliper_band(form, pitch, lead, limits.pd_max, limits.pd_min, crest_diameter,
+                        limits.basic_pd)
+    pd = pd_from_thickness(thickness, form, pitch, band.level_diameter, lead, band.normal)
+    if not (limits.basic_minor < pd < limits.basic_major):
+        u = unit or spec.native_unit
+        raise InvalidEntry(f"A thickness of {format_length(thickness, u)} gives a pitch diameter "
+                           f"of {format_length(pd, u)}, outside the thread: check the reading, "
+                           "its unit and the depth slide.")
+    wire = wire_range(form, pitch).best
+    m = measure(limits, wire, [over_wires_exact(pd, wire, form, pitch, lead)], lathe=lathe,
+                compound_angle_deg=compound_angle_deg, aim_pd=aim_pd, resolution=resolution,
+                unit=unit, dial_step=dial_step)
+    return CaliperMeasurement(float(thickness), band, pd, m, form, pitch, lead)

@@ -109,6 +109,12 @@ def _flank_limits(form: ThreadForm) -> tuple[float, float, float]:
     return crest_top, top, bottom
 
 
+#: How a square thread is measured instead of over wires (common practice, no source).
+SQUARE_MEASURE = ("Wires cannot measure a square thread (its flanks are parallel): measure the "
+                  "thread's width over its flats with calipers and the minor diameter, or fit "
+                  "it to a gauge or its nut.")
+
+
 def wire_constants(form: ThreadForm) -> WireConstants:
     """Return the three-wire constants and the usable wire range of ``form`` (over P).
 
@@ -119,8 +125,7 @@ def wire_constants(form: ThreadForm) -> WireConstants:
     BS 84, BS 93 crest radii.
     """
     if form.angle_deg <= 0:
-        raise InvalidEntry("Wires cannot measure a square thread (its flanks are parallel): "
-                           "measure the groove width and the minor diameter instead.")
+        raise InvalidEntry(SQUARE_MEASURE)
     a = form.half_angle_rad
     c_w = 1 + 1 / math.sin(a)
     c_p = 0.5 / math.tan(a)

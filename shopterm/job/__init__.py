@@ -5,9 +5,19 @@ reads ``session.state`` and adds entries with ``session.append(kind, payload)`` 
 ``session.undo()``; ``store.health`` is the warning to show while entries are not being saved.
 """
 
-from shopterm.job.events import KINDS, Event, check_payload, make_event
-from shopterm.job.state import JobState, apply, fold
-from shopterm.job.store import JobInfo, JobSession, Store, StoreError, data_dir
+import importlib
 
-__all__ = ["KINDS", "Event", "check_payload", "make_event", "JobState", "apply", "fold",
-           "JobInfo", "JobSession", "Store", "StoreError", "data_dir"]
+#: Where each name of the package lives; loaded on first use (PEP 562), so that importing
+#: ``shopterm.job.store`` to open the record at start-up does not load the events and state.
+_HOME = {"KINDS": "events", "Event": "events", "check_payload": "events", "make_event": "events",
+         "JobState": "state", "apply": "state", "fold": "state",
+         "JobInfo": "store", "JobSession": "store", "Store": "store", "StoreError": "store",
+         "data_dir": "store"}
+
+__all__ = list(_HOME)
+
+
+def __getattr__(name: str):
+    if name not in _HOME:
+        raise AttributeError(f"module 'shopterm.job' has no attribute {name!r}")
+    return getattr(importlib.import_module(f"shopterm.job.{_HOME[name]}"), name)

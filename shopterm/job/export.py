@@ -258,7 +258,8 @@ def job_card(events: Sequence[Event], status: str | None = None) -> str:
         where = "" if plane is None else (f" at {_len(plane, unit)} from the end, PD there "
                                           f"{_len(r.payload.get('pd_at_plane_mm'), unit)}; "
                                           "at the gauge plane")
-        add(f"  {_time(r.at):<8}  over wires {_len(r.measured_mm, unit)}{wire}{where}, "
+        how = ("caliper thickness" if r.payload.get("method") == "caliper" else "over wires")
+        add(f"  {_time(r.at):<8}  {how} {_len(r.measured_mm, unit)}{wire}{where}, "
             f"PD {_len(r.pd_mm, unit)}: {r.state}")
     add("")
     last = s.last_reading

@@ -28,14 +28,21 @@ import fcntl
 import os
 import shutil
 import sqlite3
+import time
 from dataclasses import dataclass
 from datetime import datetime
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from shopterm.errors import InvalidEntry, ShoptermError
-from shopterm.job.events import Event, event_from_row, make_event, now, payload_json
-from shopterm.job.state import JobState, apply, fold
+
+if TYPE_CHECKING:
+    from shopterm.job.events import Event
+    from shopterm.job.state import JobState
+
+# ``shopterm.job.events`` and ``.state`` (their dataclasses, json) are imported where a job is
+# read or written, not here: opening the record and listing its jobs needs neither, so the app
+# does not pay for them before its first screen is shown.
 
 #: The schema this shopterm writes (``PRAGMA user_version``).
 SCHEMA_VERSION = 2
@@ -441,6 +448,7 @@ class Store:
                           (j.id, j.title, j.created, j.status, j.designation, j.thread_kind,
                            j.units))
             else:
+                from shopterm.job.events import payload_json
                 e: Event = op[1]
                 c.execute("INSERT INTO events (job_id, seq, kind, payload, at) "
                           "VALUES (?, ?, ?, ?, ?)",
@@ -494,6 +502,7 @@ class Store:
 
     def events(self, job_id: int) -> list[Event]:
         """Return the job's events as written to the database, oldest first."""
+        from shopterm.job.events import event_from_row
         rows = self._conn.execute("SELECT seq, job_id, kind, payload, at FROM events "
                                   "WHERE job_id = ? ORDER BY seq", (job_id,)).fetchall()
         return [event_from_row(*r) for r in rows]
@@ -505,6 +514,8 @@ class Store:
         designation — the thread as typed; thread_kind — 'external' or 'internal';
         units — 'mm' or 'in' (how the job shows lengths); title — defaults to the designation.
         """
+        from shopterm.job.events import make_event
+        from shopterm.job.state import JobState, apply
         payload = {"designation": designation, "thread_kind": thread_kind, "units": units}
         if title:
             payload["title"] = title
@@ -524,6 +535,7 @@ class Store:
         """Return the session on job ``job_id`` (the same object each time it is asked for)."""
         if job_id in self._sessions:
             return self._sessions[job_id]
+        from shopterm.job.state import fold
         info = self.job(job_id)
         try:
             state = fold(self.events(job_id))
@@ -556,19 +568,25 @@ class StoreOpening:
         import threading
         self._store: Store | None = None
         self._error: BaseException | None = None
+        self.seconds = 0.0          # how long opening took on its thread
+        self.waited = 0.0           # how long ``result()`` waited for it
         self._thread = threading.Thread(target=self._run, args=(directory,),
                                         name="shopterm-store-open", daemon=True)
         self._thread.start()
 
     def _run(self, directory) -> None:
+        start = time.perf_counter()
         try:
             self._store = Store.open(directory)
         except BaseException as exc:  # noqa: BLE001 — handed to result(), raised there
             self._error = exc
+        self.seconds = time.perf_counter() - start
 
     def result(self) -> Store:
         """Return the opened store once it is open; raise what ``Store.open`` raised."""
+        start = time.perf_counter()
         self._thread.join()
+        self.waited = time.perf_counter() - start
         if self._error is not None:
             error, self._error = self._error, None
             raise error
@@ -624,6 +642,8 @@ class JobSession:
         ``StoreError`` if this copy is read-only. If the disk refuses the write the entry is
         still taken, kept in memory, and ``health`` says so.
         """
+        from shopterm.job.events import make_event
+        from shopterm.job.state import apply
         if kind == "pass_cut" and isinstance(payload, dict) and "n" not in payload:
             payload = {**payload, "n": self.state.next_pass}
         event = make_event(self.state.next_seq, self.job_id, kind, payload)

@@ -35,7 +35,7 @@ if TYPE_CHECKING:
     from shopterm.standards.spec import Limits, ThreadSpec
 
 __all__ = ["parse", "limits", "catalogue", "format_designation", "classes", "cautions",
-           "family_module",
+           "usual_class", "family_module",
            "ThreadSpec", "Limits", "FAMILIES"]
 
 #: Family keys in the order they are asked to parse, with the module that implements each.
@@ -168,6 +168,13 @@ def cautions(spec: ThreadSpec) -> tuple[str, ...]:
     Pipe threads: a pressure fitting's fitness for service is not settled by its dimensions.
     """
     return tuple(getattr(family_module(spec.family), "cautions", lambda s: ())(spec))
+
+
+def usual_class(spec: ThreadSpec) -> str | None:
+    """Return the class a family's limits use when none is given (its ``DEFAULT_CLASS``, a
+    class or one per kind), or None when the family has none (basic sizes)."""
+    default = getattr(family_module(spec.family), "DEFAULT_CLASS", None)
+    return default.get(spec.kind) if isinstance(default, dict) else default
 
 
 @lru_cache(maxsize=1)

@@ -84,16 +84,26 @@ def pitches(key: str, series_name: str | None, size: str) -> list[ThreadSpec]:
     return specs
 
 
-# The sizes most often cut in a group, offered first as whole threads (the coarse pitch, the
-# catalogue's external thread and usual class) before the rest of the group, which sits behind
-# a "more" entry. Nine to a list: one page of the keypad's digits.
-COMMON: dict[str, tuple[str, tuple[str, ...]]] = {
+# The sizes most often cut in a group, offered first as whole threads (the catalogue's external
+# thread and usual class) before the rest of the group, which sits behind a "more" entry. Each
+# entry is (series, size, pitch [mm] or None for the coarsest). Nine to a list: one page of the
+# keypad's digits.
+COMMON: dict[str, tuple[tuple[str, str, float | None], ...]] = {
     # ISO 262 selected sizes for screws, bolts and nuts, M4 to M24 (from memory); M3 and the
     # second-choice sizes (M14, M18, M22) are under "more"
-    "iso": ("M", ("M4", "M5", "M6", "M8", "M10", "M12", "M16", "M20", "M24")),
+    "iso": tuple(("M", size, None) for size in
+                 ("M4", "M5", "M6", "M8", "M10", "M12", "M16", "M20", "M24")),
     # UNC and BSW fractional sizes 1/4 to 1 in (common practice, no source)
-    "unified": ("UNC", ("1/4", "5/16", "3/8", "7/16", "1/2", "5/8", "3/4", "7/8", "1")),
-    "whitworth": ("BSW", ("1/4", "5/16", "3/8", "7/16", "1/2", "5/8", "3/4", "7/8", "1")),
+    "unified": tuple(("UNC", size, None) for size in
+                     ("1/4", "5/16", "3/8", "7/16", "1/2", "5/8", "3/4", "7/8", "1")),
+    "whitworth": tuple(("BSW", size, None) for size in
+                       ("1/4", "5/16", "3/8", "7/16", "1/2", "5/8", "3/4", "7/8", "1")),
+    # Leadscrews: ISO 2902 first-choice diameters with their preferred pitch (from memory) and
+    # the Acme sizes most met on lathes and vices (common practice, no source)
+    "power": (("Tr", "Tr12", 3.0), ("Tr", "Tr16", 4.0),
+              ("Tr", "Tr20", 4.0), ("Tr", "Tr24", 5.0), ("Tr", "Tr32", 6.0),
+              ("Tr", "Tr40", 7.0), ("ACME", "1/2", None), ("ACME", "3/4", None),
+              ("ACME", "1", None)),
 }
 
 # The internal class that goes with a catalogue's usual external class: ISO 965-1 6H with 6g,
@@ -103,13 +113,13 @@ _INTERNAL_CLASS = {"6g": "6H", "2A": "2B"}
 
 
 def common(key: str) -> list[ThreadSpec]:
-    """Return the group's common threads (coarsest pitch of each size), or [] if it has none."""
+    """Return the group's common threads (the listed pitch, else the coarsest), or [] if none."""
     if key not in COMMON:
         return []
-    series_name, names = COMMON[key]
     out = []
-    for size in names:
-        specs = pitches(key, series_name, size)
+    for series_name, size, pitch in COMMON[key]:
+        specs = [s for s in pitches(key, series_name, size)
+                 if pitch is None or abs(s.pitch - pitch) < 1e-9]
         if specs:
             out.append(specs[0].with_(pitch_implied=False))
     return out

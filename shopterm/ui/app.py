@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import contextlib
 import importlib
 import os
 import sys
@@ -213,6 +214,9 @@ class ShoptermApp(App):
         if name == "quit":
             self.exit(0)
             return
+        if name == "shutdown":
+            self.ask_shutdown()
+            return
         if name not in REGISTRY:
             return
         try:
@@ -299,6 +303,61 @@ class ShoptermApp(App):
 
         self.push_screen(ConfirmScreen(f"Undo {describe_event(target)}?"), answer)
 
+    # -- shutting the Pi down ----------------------------------------------------------------
+    def ask_shutdown(self) -> None:
+        """Ask before shutting the machine down (only offered with ``[pi] shutdown_command``)."""
+        from shopterm.ui.screens.menu import ConfirmScreen
+        if not self.config.shutdown_command:
+            return
+
+        def answer(yes: bool | None) -> None:
+            if yes:
+                self.shut_down()
+
+        self.push_screen(ConfirmScreen(
+            "Shut the Pi down?\nThe job record is closed first; the job can be carried on "
+            "after the next start.\nSwitch off only when the screen is dark and the Pi's "
+            "activity light has stopped."), answer)
+
+    def shut_down(self) -> bool:
+        """Close the record, then run the configured shutdown command; True if it ran.
+
+        Refused (nothing closed) while entries wait in memory to be written. If the command
+        cannot be run or fails, the record is opened again and the app goes on as before.
+        References: SQLite "Write-Ahead Logging" (closing the last connection checkpoints the
+        WAL into the database file); sync(2).
+        """
+        import subprocess
+        command = self.config.shutdown_command
+        job_id = self.job.job_id if self.job is not None else None
+        if self.store is not None:
+            if self.store.pending and not self.store.retry():
+                self.notify(f"Not shutting down: {self.store.health}", severity="error",
+                            timeout=20)
+                return False
+            self.store.close()
+            self.store = None
+            self.job = None
+        os.sync()
+        try:
+            run = subprocess.run(command, stdin=subprocess.DEVNULL, capture_output=True,
+                                 text=True, timeout=30)
+            failed = (None if run.returncode == 0 else
+                      (run.stderr.strip().splitlines() or [f"exit status {run.returncode}"])[-1])
+        except (OSError, subprocess.TimeoutExpired) as exc:
+            failed = str(exc)
+        if failed is None:
+            self.exit(0, message="shopterm: the job record is closed; the Pi is shutting down.")
+            return True
+        self._open_store()
+        if self.store is not None and job_id is not None:
+            self.job = self.store.open_job(job_id)
+        self.notify(f"The Pi did not shut down ({' '.join(command)}: {failed}). The record is "
+                    "open again; carry on, or switch off from a shell.", severity="error",
+                    timeout=20)
+        self._after_change()
+        return False
+
     # -- what the status line says -----------------------------------------------------------
     def status_text(self, title: str) -> tuple[str, bool]:
         """Return (status line text, whether entries are being saved).
@@ -375,17 +434,24 @@ def describe_event(event) -> str:
     return event.title
 
 
-def run_app(config_path: str | None = None, data_dir: str | None = None) -> int:
-    """Start the app; refuse to start with a config that is not valid. Returns the exit code."""
+def run_app(config_path: str | None = None, data_dir: str | None = None, *,
+            profile=None) -> int:
+    """Start the app; refuse to start with a config that is not valid. Returns the exit code.
+
+    ``profile``: a ``shopterm.startprofile.StartProfile`` (``shopterm --profile-start``): the
+    phases are timed into it and the app stops once its first screen is painted.
+    """
     from shopterm.config import load_config
     from shopterm.errors import ConfigError
     from shopterm.job.store import Store
 
+    phase = profile.phase if profile is not None else (lambda name: contextlib.nullcontext())
     # The record opens on a thread meanwhile: its disk waits overlap reading the config and
     # Textual's start; the app takes it on mount.
     opening = Store.open_in_background(data_dir)
     try:
-        config = load_config(config_path)
+        with phase("config read"):
+            config = load_config(config_path)
     except ConfigError as exc:
         opening.discard()
         print(f"shopterm: {exc}\nFix that line (check it with: shopterm --check-config PATH), "
@@ -394,6 +460,14 @@ def run_app(config_path: str | None = None, data_dir: str | None = None) -> int:
     except BaseException:
         opening.discard()
         raise
-    app = ShoptermApp(config, data_dir=data_dir, store_opening=opening)
-    app.run()
+    with phase("app built (themes, stylesheet)"):
+        app = ShoptermApp(config, data_dir=data_dir, store_opening=opening)
+    if profile is None:
+        app.run()
+    else:
+        # Textual draws on stderr: on a terminal the first paint is the real one
+        app.run(headless=not sys.__stderr__.isatty(), auto_pilot=profile.autopilot)
+        profile.add("record open", opening.seconds * 1e3,
+                    f"on its own thread meanwhile; the app waited {opening.waited * 1e3:.1f} ms",
+                    after="app built (themes, stylesheet)")
     return app.return_code or 0

@@ -97,12 +97,12 @@ class Replay:
 
 async def replay_job(job, workdir: Path) -> dict:
     """Cut the job to its first passes and one reading; return the keys counted."""
-    from tests.keypad_jobs import demo_config, lathe_facts
+    from tests.keypad_jobs import CALIPER_STEP_MM, demo_config, lathe_facts, sim_tip
     from shopterm.config import load_config
     from shopterm.ui.app import ShoptermApp
     from tests.e2e.thread_sim import TaperSim, ThreadSim
 
-    path = demo_config(workdir, job.units)
+    path = demo_config(workdir, job.units, job.wires)
     facts = lathe_facts(path)
     app = ShoptermApp(load_config(path), data_dir=workdir / f"record-{job.units}-{job.starts}")
     async with app.run_test(size=(80, 24)) as pilot:
@@ -149,7 +149,7 @@ async def replay_job(job, workdir: Path) -> dict:
                       "the preparation's size entry")
         await r.until(lambda t: "\u2588" in t, "the size entry's cursor")
         await r.press(job.od_typed, "enter")
-        await r.until("Measured ", "the OD taken")
+        prepared = await r.until("Measured ", "the OD taken")
         await r.press("enter")
         await r.until(PASS_OF, "pass 1 shown")
         r.mark("prepare")
@@ -180,30 +180,41 @@ async def replay_job(job, workdir: Path) -> dict:
             await r.until(PASS_OF, "back on the counter")
             r.mark("back")
             return counts(job, r.marks, per_pass, "")
-        text = await r.until("Reading over wires", "the wire screen")
-        r.mark("to_wires")
-        if job.plane_typed:                # tapered: the plane, once (it is remembered)
-            await r.press("enter", "1")
-            await r.until("Where is the single wire", "the plane asked")
-            await r.press(job.plane_typed, "enter")
-            text = await r.until("measured at", "the plane taken")
-        r.mark("plane")
         unit = job.units
-        num = re.search(rf"wire (\d+(?:\.\d+)?) {unit}\b", text)
-        assert num, text
-        shown_mm = float(num[1]) * (25.4 if unit == "in" else 1.0)
-        wire_mm = min(facts["wires_mm"], key=lambda w: abs(w - shown_mm))
-        lead_mm = app.spec.lead
-        args = (float(job.od_typed) * (25.4 if unit == "in" else 1.0), app.spec.pitch,
-                lead_mm, job.angle_deg, facts["tip_kind"], facts["tip_mm"],
-                facts["resolution_mm"], unit)
+        to_mm = 25.4 if unit == "in" else 1.0
+        tip_kind, tip_mm = sim_tip(job, facts, prepared)
+        args = (float(job.od_typed) * to_mm, app.spec.pitch, app.spec.lead, job.angle,
+                tip_kind, tip_mm, facts["resolution_mm"], unit,
+                "h28" if job.angle == 60.0 else "helical")
         sim = TaperSim(*args, k=job.taper_k) if job.taper_k else ThreadSim(*args)
         sim.cut_to(app.state.passes[-1].radial_cum_mm)
-        typed = (sim.typed_at(wire_mm, float(job.plane_typed)) if job.plane_typed
-                 else sim.typed(wire_mm))
+        if job.measure == "caliper":
+            text = await r.until("Thickness read", "the caliper screen")
+            depth = re.search(rf"Depth slide (\d+(?:\.\d+)?) {unit}\b", text)
+            assert depth, text
+            typed = sim.caliper_typed(float(depth[1]) * to_mm, CALIPER_STEP_MM)
+            taken = f"Thickness {typed}"
+        else:
+            text = await r.until("Reading over wires", "the wire screen")
+            r.mark("to_wires")
+            if job.plane_typed:                # tapered: the plane, once (it is remembered)
+                await r.press("enter", "1")
+                await r.until("Where is the single wire", "the plane asked")
+                await r.press(job.plane_typed, "enter")
+                text = await r.until("measured at", "the plane taken")
+                r.mark("plane")
+            num = re.search(rf"wire (\d+(?:\.\d+)?) {unit}\b", text)
+            assert num, text
+            shown_mm = float(num[1]) * to_mm
+            wire_mm = min(facts["wires_mm"], key=lambda w: abs(w - shown_mm))
+            typed = (sim.typed_at(wire_mm, float(job.plane_typed)) if job.plane_typed
+                     else sim.typed(wire_mm))
+            taken = f"Reading {typed}"
+        if "to_wires" not in r.marks:      # the caliper screen
+            r.mark("to_wires")
         readings = len(app.state.readings) if hasattr(app.state, "readings") else None
         await r.press(typed, "enter")
-        await r.until(f"Reading {typed}", "the reading taken")
+        await r.until(taken, "the reading taken")
         if readings is not None:
             assert len(app.state.readings) == readings + 1
         r.mark("reading")

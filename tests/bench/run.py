@@ -2,6 +2,10 @@
 
     python tests/bench/run.py [--runs N] [--out PATH] [--skip startup,keys,gears,core,keycount]
 
+With ``--skip``, the figures of the skipped sections are kept from the results file being
+replaced, under ``kept_from_earlier_run`` ({section: {date, machine}} of the run that measured
+them).
+
 Plain scripts, not pytest. Each ratio is measured side by side with its baseline in this same run
 (see the docstring of each ``bench_*.py`` for its method):
 
@@ -48,6 +52,8 @@ for _p in (str(HERE), str(REPO)):
 RESULTS = HERE / "results.json"
 GEAR_TARGET = 100.0
 SECTIONS = ("core", "startup", "keys", "gears", "keycount")
+#: Keys that describe one run as a whole (never carried over from an earlier file).
+_RUN_KEYS = ("machine", "date", "section_seconds", "total_seconds", "failures")
 
 
 def calibration_ms(repeats: int = 5) -> float:
@@ -143,6 +149,17 @@ def main(argv: list[str] | None = None) -> int:
     started = time.perf_counter()
     results: dict = {"startup_ratio": None, "rss_ratio": None, "key_work_ratio": None,
                      "gear_speedup": None, "core_catalogue_ms": None, "keys": None}
+    out = Path(args.out)
+    if skip and out.is_file():
+        # a partial run keeps the figures of the sections it skipped from the file it
+        # replaces, and says which, from when and which machine (they were not run again)
+        previous = json.loads(out.read_text())
+        earlier = previous.pop("kept_from_earlier_run", None) or {}
+        results.update({k: v for k, v in previous.items() if k not in _RUN_KEYS})
+        results["kept_from_earlier_run"] = {
+            name: earlier.get(name) or {"date": previous.get("date"),
+                                        "machine": previous.get("machine")}
+            for name in sorted(skip)}
     results["machine"] = machine_info()
     results["date"] = _dt.date.today().isoformat()
     print(f"machine         {results['machine']['cpu']}, {results['machine']['cores_usable']} "
@@ -196,7 +213,6 @@ def main(argv: list[str] | None = None) -> int:
     if failures:
         results["failures"] = failures
     results["total_seconds"] = round(time.perf_counter() - started, 1)
-    out = Path(args.out)
     out.write_text(json.dumps(results, indent=1, default=str) + "\n")
     print(f"wrote {out} ({results['total_seconds']:.0f} s)")
     return 1 if failures else 0

@@ -122,3 +122,25 @@ def test_crest_flat_option(capsys):
     assert "crest flat 0.4 fits a crest flat of 0.375" in data["candidates"][0]["why"]
     code, _out, err = run(capsys, "--major", "23.95", "--pitch", "3", "--crest-flat", "-1")
     assert code != 0 and "crest flat" in err
+
+
+@pytest.mark.parametrize("second, top", [
+    # ISO 7-1 / ASME B1.20.1: 1 in 16 on diameter, 10/16 = 0.625 mm over 10 mm (computed)
+    ("20.375", {"R1/2", "1/2-14 NPT"}),
+    ("21", {"G1/2 external"}),           # ISO 228-1 G: parallel
+])
+def test_taper_tells_tapered_from_parallel_pipe_threads(capsys, second, top):
+    # 1/2 in pipe: 14 tpi at about 21 mm (common practice, no source)
+    data = run_json(capsys, "--major", "21", "--tpi", "14", "--taper", f"21,{second},10")
+    names = [c["designation"] for c in data["candidates"][:len(top)]]
+    assert set(names) == top
+
+
+@pytest.mark.parametrize("taper, words", [
+    ("21,20", "two crest diameters and the distance"),
+    ("21,20,0", "must be greater than zero"),
+    ("21,15,10", "far steeper than a thread's taper"),
+])
+def test_taper_mistakes_are_one_line_and_exit_2(capsys, taper, words):
+    code, out, err = run(capsys, "--major", "21", "--tpi", "14", "--taper", taper)
+    assert code == 2 and words in err and len(err.strip().splitlines()) == 1

@@ -146,3 +146,24 @@ def test_bad_input_exits_2_with_one_line(capsys, argv, match):
     assert err.startswith("shopterm: ") and err.count("\n") == 1
     assert match in err
     assert "Traceback" not in err
+
+
+@pytest.mark.parametrize("bare, with_class", [("Tr24x10(P5)", "Tr24x10(P5)-7e"),
+                                              ("1-5 ACME", "1-5 ACME-2G")])
+def test_power_thread_with_no_class_is_measured_to_its_usual_class(capsys, bare, with_class):
+    # ISO 2903: 7e is the medium class for general use; ASME B1.5: 2G the general-purpose one
+    # (both from memory); the band with no class must be that class's, not the basic PD
+    d = run_json(capsys, bare)
+    e = run_json(capsys, with_class)
+    assert d["over_wires"] == e["over_wires"]
+    assert d["over_wires"]["at_pd_max"] > d["over_wires"]["at_pd_min"]
+    code, out, _ = run(capsys, bare)
+    assert code == 0 and "(no class given)" in out and "diameter basic size" not in out
+
+
+@pytest.mark.parametrize("extra", [(), ("--json",), ("--reading", "25")])
+def test_square_thread_is_refused_in_one_line(capsys, extra):
+    code, out, err = run(capsys, "SQUARE 25x5", *extra)
+    assert code == 2 and out == ""
+    assert len(err.strip().splitlines()) == 1
+    assert "calipers" in err and "gauge" in err

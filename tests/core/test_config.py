@@ -130,6 +130,11 @@ def test_config_module_does_not_import_textual():
      lambda c: [(p.label, p.ratio) for p in c.lathe.gearbox]
      == [("A1", Fraction(1, 2)), ("A2", Fraction(4, 7))]),
     ('units = "in"', 'units = "mm"', lambda c: c.shop.display_units == "mm"),
+    # [pi]: the sample leaves it commented out, so nothing is offered; uncommented it is split
+    ('# [pi]', '# [pi]', lambda c: c.shutdown_command == ()),
+    ('# [pi]', '[pi]', lambda c: c.shutdown_command == ()),
+    ('# [pi]', '[pi]\nshutdown_command = "sudo /sbin/shutdown -h now"',
+     lambda c: c.shutdown_command == ("sudo", "/sbin/shutdown", "-h", "now")),
 ])
 def test_sample_variants_read_right(old, new, check):
     assert check(read(edited(old, new)))
@@ -224,6 +229,13 @@ BAD = [
      'threads = "M12x1.75-6g"', "favourites.threads", "threads ="),
     ("a favourite not text", 'threads = ["M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A"]',
      'threads = ["M12x1.75-6g", 10]', "favourites.threads", "threads ="),
+    ("unknown key in [pi]", "# [pi]", '[pi]\nshutdown = "now"', "pi.shutdown", 'shutdown = "now"'),
+    ("shutdown command not text", "# [pi]", "[pi]\nshutdown_command = true",
+     "pi.shutdown_command", "shutdown_command = true"),
+    ("shutdown command unclosed quote", "# [pi]", "[pi]\nshutdown_command = \"sh -c 'x\"",
+     "pi.shutdown_command", "shutdown_command ="),
+    ("empty shutdown command", "# [pi]", '[pi]\nshutdown_command = " "', "pi.shutdown_command",
+     "shutdown_command ="),
 ]
 
 

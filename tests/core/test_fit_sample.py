@@ -131,3 +131,17 @@ def test_readings_work_against_the_sample_target():
 def test_errors(kw, words):
     with pytest.raises(InvalidEntry, match=words):
         target_from_sample(parse("M10x1.5-6g"), **kw)
+
+
+@pytest.mark.parametrize("designation", ["R1/2", "1/2-14 NPT"])
+def test_a_tapered_thread_is_not_cut_to_a_sample(designation):
+    # ISO 7-1 R and ASME B1.20.1 NPT are gauged along their taper (1 in 16), not by one band
+    thread = parse(designation)
+    with pytest.raises(InvalidEntry, match="tapered thread"):
+        target_from_sample(thread, "internal", sample_pd=19.8)
+
+
+def test_a_parallel_pipe_thread_still_is():
+    # ISO 228-1 G1/2: parallel; pitch diameter 19.793 mm (from memory)
+    t = target_from_sample(parse("G1/2"), "internal", sample_pd=19.793)
+    assert t.pd_min == pytest.approx(19.793 + DEFAULT_NUT_CLEARANCE)

@@ -75,3 +75,15 @@ def test_only_digits_and_points_are_numbers(typed):
     assert not numeric.is_numeric(typed)
     with pytest.raises(InvalidEntry):
         numeric.candidates(typed)
+
+
+def test_common_leadscrew_threads_are_the_preferred_tr_pitches_and_acme_sizes():
+    got = [s.designation for s in walk.common("power")]
+    # ISO 2902 first-choice diameters with their preferred pitch (from memory)
+    assert got[:6] == ["Tr12x3-7e", "Tr16x4-7e", "Tr20x4-7e", "Tr24x5-7e", "Tr32x6-7e",
+                       "Tr40x7-7e"]
+    # ASME B1.5 general-purpose series: 1/2-10, 3/4-6, 1-5 (from memory)
+    assert got[6:] == ["1/2-10 ACME-2G", "3/4-6 ACME-2G", "1-5 ACME-2G"]
+    assert len(got) <= 9                                # one page of the keypad's digits
+    # a listed pitch that is not the coarsest is the one taken (Tr24: 8, 5 and 3 in ISO 2902)
+    assert [s.pitch for s in walk.pitches("power", "Tr", "Tr24")][0] == 8.0

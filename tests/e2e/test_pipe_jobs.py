@@ -172,7 +172,7 @@ def test_r_half_between_centres_with_set_over(tmp_path):
         # training manual's rule, as for 60°: 29.5°)
         assert angle == 27.0
         sim = TaperSim(float(j.od_typed), float(found["lead"]), float(found["lead"]),
-                       j.angle_deg, facts["tip_kind"], facts["tip_mm"], facts["resolution_mm"],
+                       j.angle, facts["tip_kind"], facts["tip_mm"], facts["resolution_mm"],
                        j.units, k=j.taper_k, measured_at_mm=0.0)
         wire_mm = next(w for w in facts["wires_mm"] if abs(w - 0.0401 * 25.4) < 1e-6)
         log: list = []
@@ -236,7 +236,7 @@ def test_g_three_quarter_internal_with_a_plug_gauge(tmp_path):
         angle = float(find(r"compound (\d+(?:\.\d+)?)° from the cross-slide", prep,
                            "compound angle")[1])
         sim = ThreadSim(float(j.od_typed), float(found["lead"]), float(found["lead"]),
-                        j.angle_deg, facts["tip_kind"], facts["tip_mm"], facts["resolution_mm"],
+                        j.angle, facts["tip_kind"], facts["tip_mm"], facts["resolution_mm"],
                         j.units, internal=True)
         log: list = []
         cut_until(m, sim, facts, angle, log)

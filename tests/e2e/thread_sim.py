@@ -24,6 +24,18 @@ The model:
   matters for a two-start thread (lead twice the pitch); the app itself uses the exact helical
   model, so the two agree to a few tenths of a micrometre, not exactly (that is the point: the
   readings do not come from the code under test).
+* For a coarse lead (a two-start trapezoidal screw, 7-10 degrees) that term is too rough (some
+  micrometres): ``model="helical"`` finds the wire's seat by brute force instead. The groove's
+  flank is the helicoid z = L theta / (2 pi) + w(r)/2, w(r) = P/2 + (2r - E) tan a (the groove
+  half a pitch wide at the pitch diameter E, its straight flanks at a; the wire touches the
+  straight flank, above the root flat and below the crest flat); the wire is a cylinder lying
+  along the groove, its axis through (rho, 0, 0) tangent to the helix there (inclined
+  atan(L / (2 pi rho))). Its seat is the rho at which the least distance from its axis to the
+  flank (searched on a grid of (r, theta) zoomed in a dozen times) is W/2, found by halving;
+  by symmetry it touches both flanks, and M = 2 rho + W. Slow (a tenth of a second) and plain.
+* A gear-tooth caliper with its depth slide set s below the crest reads the thread at diameter
+  D = OD - 2s: along the axis P/2 - (D - E) tan a, square to the thread that times cos of the
+  helix angle there, atan(L / (pi D)).
 
 * A tapered thread (``TaperSim``): the blank is turned to the taper (k on diameter) and measured
   at one plane; the set-over or attachment moves the tool square to the axis, so every plane is
@@ -65,6 +77,7 @@ class ThreadSim:
     tip_mm: float
     resolution_mm: float
     unit: str
+    model: str = "h28"                     # the three-wire relation: 'h28' or 'helical'
     depth_mm: float = 0.0                  # deepest radial cut so far [mm]
     cuts: list = field(default_factory=list)
 
@@ -113,6 +126,8 @@ class ThreadSim:
         References: NBS Handbook H28 / ASME B1.2 form with the lead term.
         """
         e = self.pitch_diameter() if pd_mm is None else pd_mm
+        if self.model == "helical":
+            return over_wires_helical(e, wire_mm, self.pitch_mm, self.lead_mm, self.angle_deg)
         a = self.half_angle
         tan_lead = self.lead_mm / (math.pi * e)
         cosec, cot = 1 / math.sin(a), 1 / math.tan(a)
@@ -130,6 +145,61 @@ class ThreadSim:
         """Return the reading as the keypad types it (digits and a point, no unit)."""
         places = 4 if self.unit == "in" else 3
         return f"{self.reading(wire_mm):.{places}f}"
+
+    # -- the gear-tooth caliper ----------------------------------------------------------------
+    def caliper_thickness(self, depth_setting_mm: float) -> float:
+        """Return the thickness [mm] a gear-tooth caliper reads square to the thread with its
+        depth slide ``depth_setting_mm`` [mm] below the crest (see the module's model)."""
+        level = self.od_mm - 2 * depth_setting_mm
+        axial = self.pitch_mm / 2 - (level - self.pitch_diameter()) * math.tan(self.half_angle)
+        return axial * math.cos(math.atan(self.lead_mm / (math.pi * level)))
+
+    def caliper_typed(self, depth_setting_mm: float, step_mm: float) -> str:
+        """Return the caliper's thickness as typed: to its step ``step_mm`` [mm], in the unit."""
+        t = self.caliper_thickness(depth_setting_mm)
+        value, step = (t / INCH, step_mm / INCH) if self.unit == "in" else (t, step_mm)
+        return f"{round(value / step) * step:.{4 if self.unit == 'in' else 3}f}"
+
+
+def over_wires_helical(pd_mm: float, wire_mm: float, pitch_mm: float, lead_mm: float,
+                       angle_deg: float, zooms: int = 14, grid: int = 41) -> float:
+    """Return the distance over three wires [mm] on a helical groove, by brute-force search of
+    the wire's seat on the helicoidal flank (see the module's model).
+
+    pd_mm, wire_mm, pitch_mm, lead_mm [mm]; angle_deg: the form's included angle [deg].
+    References: the geometry of a helicoid and a cylinder (no published formula used); with no
+    lead it reduces to NBS Handbook H28's plain relation (tested).
+    """
+    import numpy as np
+    e, w = pd_mm, wire_mm
+    tan_a = math.tan(math.radians(angle_deg / 2))
+
+    def least_distance(rho: float) -> float:
+        beta = math.atan2(lead_mm, 2 * math.pi * rho)
+        uy, uz = math.cos(beta), math.sin(beta)
+        r0, r1 = max(e / 2 - 1.5 * w, 1e-6), e / 2 + 1.5 * w
+        t0, t1 = -0.6, 0.6
+        best = math.inf
+        for _ in range(zooms):
+            r = np.linspace(r0, r1, grid)[:, None]
+            t = np.linspace(t0, t1, grid)[None, :]
+            x = r * np.cos(t) - rho
+            y = r * np.sin(t)
+            z = lead_mm * t / (2 * math.pi) + (pitch_mm / 2 + (2 * r - e) * tan_a) / 2
+            # |v x u| with u = (0, uy, uz): the distance from the wire's axis
+            d = np.sqrt((y * uz - z * uy) ** 2 + (x * uz) ** 2 + (x * uy) ** 2)
+            i, j = np.unravel_index(np.argmin(d), d.shape)
+            best = float(d[i, j])
+            dr, dt = (r1 - r0) / 4, (t1 - t0) / 4
+            r0, r1 = r[i, 0] - dr, r[i, 0] + dr
+            t0, t1 = t[0, j] - dt, t[0, j] + dt
+        return best
+
+    lo, hi = e / 2 - w, e / 2 + 2 * w
+    for _ in range(60):
+        mid = (lo + hi) / 2
+        lo, hi = (mid, hi) if least_distance(mid) < w / 2 else (lo, mid)
+    return (lo + hi) + w
 
 
 def radial_from_dial(divisions: float, travel_per_division_mm: float, angle_deg: float) -> float:

@@ -289,3 +289,130 @@ async def test_sample_wire_and_reading_mistakes_are_refused_in_place(make_app):
         await pilot.press("enter")
         # 0.403 in = 10.2362 mm exactly (1 in = 25.4 mm); the sample's reading as recorded
         assert app.screen.target.reading.over_wires == pytest.approx(0.403 * 25.4)
+
+
+# ---- the measurements added for power and pipe threads -------------------------------------------
+
+async def pipe_fitting(pilot, app) -> None:
+    """A 1/2 in pipe fitting: 21 mm over the crests, 14 tpi from a gauge, angle not gauged."""
+    # 1/2 in pipe is 14 tpi at about 21 mm (common practice, no source); ISO 7-1 R1/2 and
+    # ISO 228-1 G1/2 major 20.955 mm, ASME B1.20.1 1/2-14 NPT OD 0.840 in (from memory)
+    await measure_bolt(pilot, app, "21", "gauge in tpi", "14", angle="not gauged")
+    await pick(pilot, app, "show the candidates")
+
+
+async def test_a_pipe_fitting_offers_r_npt_and_g_with_the_taper_as_the_telling_measurement(
+        make_app):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_screen(app, pilot)
+        await pipe_fitting(pilot, app)
+        picks = app.screen.query_one("#choices")
+        labels = [label for label, _ in picks.items]
+        names = [label.split()[0] for label in labels]
+        assert names[:3] == ["R1/2", "1/2-14", "G1/2"]
+        # the first measurement offered is the taper, and its how is shown in full
+        asks = [label for label in labels if label.startswith("→")]
+        assert asks[0] == "→ measure the taper (tapered or parallel?)"
+        text = " ".join(screen_text(app).split())
+        assert "To tell them apart: • measure the crest diameter with calipers at two places" \
+            in text
+        # ISO 7-1 / ASME B1.20.1: taper 1 in 16 on diameter; over 10 mm: 10/16 = 0.625
+        # (computed from the standards' taper)
+        assert f"they differ by {10 / 16:.3f} mm" in text
+        lines = screen_lines(app)
+        assert len(lines) == 24 and max(len(ln) for ln in lines) <= 80
+        assert missing_glyphs("\n".join(lines)) == set()
+
+
+@pytest.mark.parametrize("second, first_two", [
+    # tapered: 1 in 16 over 10 mm = 0.625 mm smaller (ISO 7-1, ASME B1.20.1; computed)
+    ("20.375", {"R1/2", "1/2-14 NPT"}),
+    # parallel: the same diameter 10 mm along (ISO 228-1 G is a parallel thread)
+    ("21", {"G1/2 external"}),
+])
+async def test_the_taper_entered_from_the_candidates_puts_the_right_pipe_thread_first(
+        make_app, second, first_two):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_screen(app, pilot)
+        await pipe_fitting(pilot, app)
+        await pick(pilot, app, "measure the taper")
+        assert "Taper: the crest diameter at one place" in screen_text(app)
+        await type_in(pilot, "21")
+        await type_in(pilot, second)
+        assert "how far apart the two places are" in screen_text(app)
+        await pilot.press("minus")                            # back: the second is kept
+        assert app.screen.query_one("#number").value == second
+        await pilot.press("enter")
+        await type_in(pilot, "10")
+        text = screen_text(app)
+        assert f"taper 21.000 to {float(second):.3f} mm over 10.000 mm" in " ".join(text.split())
+        items = app.screen.query_one("#choices").items
+        top = {app.screen.result.candidates[i].designation for _, i in items[:len(first_two)]}
+        assert top == first_two
+        assert not any("measure the taper" in label for label, _ in items)   # taken now
+        assert missing_glyphs(text) == set()
+
+
+async def test_a_worn_leadscrew_gets_its_note_and_the_power_thread_gauges(make_app):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_screen(app, pilot)
+        await measure_bolt(pilot, app, "23.3", "gauge in mm", "5", angle="30° (trapezoidal)")
+        await pilot.press("minus")                            # back to the angle: all gauges
+        labels = [label for label, _ in app.screen.query_one("#choices").items]
+        assert [label.split()[0] for label in labels] == \
+            ["60°", "55°", "47.5°", "not", "30°", "29°", "0°:"]
+        await pick(pilot, app, "30° (trapezoidal)")
+        await pick(pilot, app, "show the candidates")
+        # ISO 2904 Tr24x5: d = 24, 7e major min 23.665 (from memory): 23.3 is 0.365 under it,
+        # worn crests with an exact pitch: a worn leadscrew
+        first = app.screen.query_one("#choices").items[0][0]
+        assert first.startswith("Tr24x5 ")
+        text = " ".join(screen_text(app).split())
+        assert "Tr24x5 looks like a worn leadscrew or screw" in text
+        assert "before cutting its mate." in text                # the whole note on screen
+        assert len(screen_lines(app)) == 24
+
+
+async def test_the_crest_flat_tells_a_trapezoidal_thread_from_a_metric_one(make_app):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_screen(app, pilot)
+        # 23.95 over the crests, 3 mm pitch: M24x3 (ISO 261) and Tr24x3 (ISO 2902) both fit
+        await measure_bolt(pilot, app, "23.95", "gauge in mm", "3", angle="not gauged")
+        await pick(pilot, app, "show the candidates")
+        names = [label.split()[0] for label, _ in app.screen.query_one("#choices").items]
+        assert {"M24x3", "Tr24x3"} <= set(names[:2])
+        await pick(pilot, app, "measure the crest flat")
+        assert "Width of the flat on a crest" in screen_text(app)
+        await type_in(pilot, ".")                             # a keypad slip: refused in place
+        assert "a number such as" in screen_text(app)          # units.EXPECTED
+        assert "Width of the flat on a crest" in screen_text(app)
+        await pilot.press("backspace")
+        # ISO 2904: crest flat 0.366 P = 1.098 mm at P 3; ISO 68-1: P/8 = 0.375 (computed)
+        await type_in(pilot, "1.1")
+        first = app.screen.query_one("#choices").items[0][0]
+        assert first.startswith("Tr24x3 ")
+        assert "crest flat 1.100 mm" in " ".join(screen_text(app).split())
+
+
+async def test_crest_flat_and_taper_from_the_more_measurements_question(make_app):
+    app = make_app(start_screen="thread")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_screen(app, pilot)
+        await measure_bolt(pilot, app, "21", "gauge in tpi", "14", angle="55°")
+        await pick(pilot, app, "the crest flat")
+        await type_in(pilot, "0")                             # a rounded crest
+        assert "Readings over wires, crest flat, taper" in screen_text(app)   # back to it
+        await pick(pilot, app, "the taper")
+        await type_in(pilot, "20.9")
+        await type_in(pilot, "20.9")
+        await type_in(pilot, "12")
+        await pick(pilot, app, "show the candidates")
+        # parallel, 55°, rounded crest: ISO 228-1 G1/2 (BS 84 Whitworth form, rounded crests)
+        first = app.screen.query_one("#choices").items[0][0]
+        assert first.startswith("G1/2")
+        values = app.screen.measurements()
+        assert values["taper"] == (20.9, 20.9, 12.0) and values["crest_flat"] == 0.0

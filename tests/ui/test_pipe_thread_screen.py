@@ -11,23 +11,26 @@ pytestmark = pytest.mark.asyncio
 CAUTION = "fitness for service is not settled"
 
 
+async def pick(pilot, picks, label: str) -> None:
+    """Press the digit of ``label``, turning pages with 0 (nine entries a page)."""
+    for _ in range(4):
+        labels = [lbl for lbl, _ in picks.page_items()]
+        assert len(labels) <= 9                       # each entry picked by one digit
+        if label in labels:
+            await pilot.press(str(labels.index(label) + 1))
+            return
+        await pilot.press("0")
+    raise AssertionError(f"{label!r} not in the list")
+
+
 async def test_walk_to_r_half_shows_gauge_plane_and_caution(make_app):
     app = make_app()
     async with app.run_test(size=(80, 24)) as pilot:
         picks = app.screen.query_one("#choices")
-        labels = [lbl for lbl, _ in picks.page_items()]
-        assert len(labels) <= 9                       # each family picked by one digit
-        for _ in range(picks.pages):                  # favourites first: the family may be
-            if walk.group("pipe").title in labels:    # on a later page (0 turns it)
-                break
-            await pilot.press("0")
-            labels = [lbl for lbl, _ in picks.page_items()]
-        await pilot.press(str(labels.index(walk.group("pipe").title) + 1))
-        labels = [lbl for lbl, _ in picks.page_items()]
-        await pilot.press(str(labels.index("R") + 1))
-        labels = [lbl for lbl, _ in picks.page_items()]
-        await pilot.press(str(labels.index("1/2") + 1))
-        text = screen_text(app)                        # the thread, before "use it"
+        await pick(pilot, picks, walk.group("pipe").title)
+        await pick(pilot, picks, "R")
+        await pick(pilot, picks, "1/2")
+        text = screen_text(app)
         assert "standard tolerance" in text
         assert "R1/2" in text and "gauge plane" in text and CAUTION in text
         assert "19.906" in text and "19.681" in text   # ISO 7-1: 19.793 ± 1.8/16 (from memory)

@@ -34,8 +34,9 @@ THEMES = ("shop-bright", CONSOLE_THEME)
 #: preparation routes to the counter): the OD typed, before Enter confirms it.
 ON_THE_WAY = ("prepare",)
 #: Screens the fixed job (an external thread) never shows: the fit check is for internal
-#: threads (tests/ui/test_wires_screen.py and the console glyph test draw it).
-NOT_THIS_JOB = ("fitcheck",)
+#: threads (tests/ui/test_wires_screen.py and the console glyph test draw it), the caliper
+#: for trapezoidal and Acme threads (tests/ui/test_power_screens.py checks it fits).
+NOT_THIS_JOB = ("fitcheck", "caliper")
 SCREENS = [*(n for n in REGISTRY if n not in ON_THE_WAY + NOT_THIS_JOB), "menu", "help"]
 INCH = 25.4                    # mm in one inch, exact # ISO 31-1 / NIST SP 811
 # ISO 965-2, M10x1.5-6g d2 max / min [mm], and in inches to 0.0001

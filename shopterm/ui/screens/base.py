@@ -16,6 +16,7 @@ class StatusLine(Static):
     StatusLine { dock: top; height: 1; background: $primary; color: $text; padding: 0 1; }
     StatusLine.unsaved { background: $error; }
     """
+    shown = ""
 
 
 class ShopScreen(Screen):
@@ -35,9 +36,12 @@ class ShopScreen(Screen):
     ]
 
     def compose(self) -> ComposeResult:
-        yield StatusLine(id="status")
+        # made with their text, so that mounting does not lay the screen out a second time
+        status, bar = StatusLine(id="status"), KeyBar(id="keybar")
+        self._show_chrome(status, bar)
+        yield status
         yield from self.compose_body()
-        yield KeyBar(id="keybar")
+        yield bar
 
     def compose_body(self) -> ComposeResult:
         yield from ()
@@ -59,12 +63,17 @@ class ShopScreen(Screen):
     def refresh_chrome(self) -> None:
         """Redraw the status line and key bar."""
         try:
-            self.query_one(KeyBar).show_hints(self.key_hints())
-            status = self.query_one(StatusLine)
+            bar, status = self.query_one(KeyBar), self.query_one(StatusLine)
         except Exception:
             return
+        self._show_chrome(status, bar)
+
+    def _show_chrome(self, status: StatusLine, bar: KeyBar) -> None:
+        bar.show_hints(self.key_hints())
         text, ok = self.app.status_text(self.TITLE)
-        status.update(text)
+        if text != status.shown:      # an unchanged line is not laid out and drawn again
+            status.shown = text
+            status.update(text)
         status.set_class(not ok, "unsaved")
 
     def on_mount(self) -> None:

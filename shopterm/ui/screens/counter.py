@@ -118,8 +118,8 @@ class CounterScreen(CutScreen):
         dt.append(f"{cut.feed_name.upper()} dial: set mark {mark_text}\n", style="bold")
         dt.append(f"{turns} ({v.dial_divisions:g} div from the zero,"
                   f" {self.L(v.dial_divisions * tpd)} travel)\n")
-        if v.side_text:
-            dt.append(v.side_text)
+        if v.side is not None:
+            dt.append_text(self.side_shift_line(v))
         elif spec.starts > 1 and v.kind != "done":
             dt.append(f"cut all {spec.starts} starts at this setting before feeding deeper")
         self.query_one("#dial-row", DialSetting).show(mark_text, dt)
@@ -146,6 +146,15 @@ class CounterScreen(CutScreen):
             if not cut.check.ok:
                 items.append("Tool check fails: 8 shows why.")
             self.draw_extra(items, self.rows_left(used), caution=bool(cautions))
+
+    def side_shift_line(self, v) -> Text:
+        """Return the compound's side shift for an alternating-flank pass, on one line."""
+        pos = v.side_shift
+        where = ("at its zero" if abs(pos) < 1e-9 else
+                 f"{self.L(abs(pos))} {'right' if pos > 0 else 'left'} of its zero")
+        out = Text(f"COMPOUND: shift {v.side} to mark {v.side_mark:g}", style="bold")
+        out.append(f" ({where})")
+        return out
 
     # -- keys --------------------------------------------------------------------------------
     def key_hints(self) -> list[tuple[str, str]]:

@@ -1,4 +1,4 @@
-"""The menu of screens (``*``) and the yes/no question (undo, finish)."""
+"""The menu of screens (``*``) and the yes/no question (undo, finish, shut down)."""
 
 from __future__ import annotations
 
@@ -16,8 +16,11 @@ from shopterm.ui.widgets.picklist import PickList
 #: entries, one digit each): the tool form opens from the pass counter (8), the pick-up from
 #: the counter (1), the wire choice from the wire screen (Enter on an empty entry); the
 #: preparation is where "Pass counter" goes until the cut is prepared, the fit check where
-#: "Wire reading" goes for an internal thread.
-NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "handtight")
+#: "Wire reading" goes for an internal thread, the gear-tooth caliper where a power thread is
+#: measured with one; cutting to fit a sample opens from a candidate on "What thread is this?",
+#: the special thread's entry from the "Special thread" family.
+NOT_IN_MENU = ("toolform", "prepare", "pickup", "wirechoice", "fitcheck", "caliper", "fitsample",
+               "special", "handtight")
 
 
 class MenuScreen(ModalScreen[str | None]):
@@ -33,6 +36,8 @@ class MenuScreen(ModalScreen[str | None]):
         items = [(title, name) for name, (_, _, title) in REGISTRY.items()
                  if name not in NOT_IN_MENU]
         items += [("Help", "help"), ("Quit (the record is saved)", "quit")]
+        if self.app.config.shutdown_command:          # [pi] shutdown_command in the config
+            items.append(("Shut the Pi down", "shutdown"))
         with Vertical():
             yield Static("[b]Go to[/b]  (digit, or ↑↓ Enter;  * or - closes)")
             yield PickList(items, columns=1, id="menu-list")

@@ -13,10 +13,12 @@ from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.widgets import Static
 
-from shopterm.cutting.cut_state import (default_draft, is_prepared, prepare, prepared_setup,
-                                        turned_depth)
+from shopterm.cutting.cut_state import (default_draft, is_prepared, power_tool_for, prepare,
+                                       prepared_setup, turned_depth)
 from shopterm.cutting.infeed import METHODS, infeed_method
 from shopterm.cutting.plan import BORING_CAUTIONS, PLAN_KINDS, SETUP_CAUTIONS, bore_to_prepare
+from shopterm.cutting.tool import standard_tip
+from shopterm.cutting.wires import is_power_form
 from shopterm.errors import InvalidEntry, ShoptermError
 from shopterm.lathe.machine import ToolTip
 from shopterm.standards import limits as thread_limits
@@ -106,7 +108,8 @@ class PrepareScreen(CutScreen):
 
     def ensure_draft(self) -> None:
         if self.draft is None or self.draft_job is not self.app.job:
-            self.draft = default_draft(self.app.shop.tool, self.app.setup_values())
+            self.draft = default_draft(self.app.shop.tool, self.app.setup_values(),
+                                       thread_limits(self.app.spec))
             self.draft_job = self.app.job
 
     def job_changed(self) -> None:
@@ -155,8 +158,10 @@ class PrepareScreen(CutScreen):
         lines.append("2 ", style="bold")
         lines.append(f"tip {tip_kind}  ")
         lines.append("3 ", style="bold")
+        where = (f"standard for {spec.designation}" if d["tip_from"] == "standard"
+                 else f"from {d['tip_from']}")
         lines.append(f"{'flat width' if tip_kind == 'flat' else 'nose radius'} "
-                     f"{self.L(d['tool_size_mm'])} (from {d['tip_from']})\n")
+                     f"{self.L(d['tool_size_mm'])} ({where})\n")
         try:
             lim, depth, method, plan, check = prepare(spec, self.app.lathe, d)
         except ShoptermError as exc:
@@ -180,13 +185,35 @@ class PrepareScreen(CutScreen):
         first = next((m for m in check.messages if not check.ok and m.startswith("Fails")),
                      check.messages[0] if check.messages else "")
         lines.append(f": {first.split(': ', 1)[-1]}  (8 tool form)")
+        power = self.power_tool_line(lim, d, depth.aim_pd)
+        if power is not None:
+            lines.append("\n")
+            lines.append_text(power)
         self.query_one("#prep", Static).update(lines)
         used = 3 + 4 + (2 if len(first) > self.width() - 20 else 1) + 1
+        used += 0 if power is None else (2 if power.cell_len > self.width() else 1)
         used += 1 if self.editing not in (None, "method") else 0
         used += 3 if self.editing == "method" else 0
         items = self.caution_items(plan, internal) + list(depth.notes)
         self.draw_extra(items, self.rows_left(used), caution=True,
                         title="Before the first pass · Enter confirms and starts pass 1")
+
+    def power_tool_line(self, lim, d: dict, aim_pd: float) -> Text | None:
+        """Return the power thread's tool line (helix and side clearances, or why the tool is
+        refused and what to do), None for any other thread."""
+        try:
+            tool = power_tool_for(lim, d, self.app.shop.tool_side_clearance_deg, aim_pd)
+        except ShoptermError as exc:
+            what = ("press 2 for a flat tip" if d["tool_kind"] != "flat"
+                    else "3 changes the flat, 8 shows the form")
+            return Text(f"Tool refused: {exc} ({what})", style="bold red")
+        if tool is None:
+            return None
+        out = Text("Helix ", style="bold")
+        out.append(f"{tool.helix_minor_deg:.1f}° minor, {tool.helix_major_deg:.1f}° major · "
+                   f"side clearance: leading {tool.leading_deg:.1f}°, trailing "
+                   f"{tool.trailing_deg:.1f}°")
+        return out
 
     def draw_unplanned(self, lines: Text, d: dict, internal: bool, exc: ShoptermError) -> None:
         """Draw the choices as they stand and what stops a plan (e.g. no turned size yet)."""
@@ -205,8 +232,13 @@ class PrepareScreen(CutScreen):
         lines.append("7 ", style="bold")
         lines.append(f"spring passes {d['spring_passes']}\n")
         lines.append(str(exc), style="bold")
+        power = self.power_tool_line(thread_limits(spec), d, None)
+        if power is not None:
+            lines.append("\n")
+            lines.append_text(power)
         self.query_one("#prep", Static).update(lines)
-        self.draw_extra(self.caution_items(None, internal), self.rows_left(9),
+        self.draw_extra(self.caution_items(None, internal),
+                        self.rows_left(9 + (0 if power is None else 1)),
                         caution=True, title="Before the first pass")
 
     def _method_line(self, lines: Text, d: dict, method) -> None:
@@ -263,6 +295,7 @@ class PrepareScreen(CutScreen):
         elif n == 2:
             d["tool_kind"] = "flat" if d["tool_kind"] == "radius" else "radius"
             d["tip_from"] = "this screen"
+            self.power_flat(d)
             self.say(f"Tip: {d['tool_kind']} (3 changes its size).")
         elif n == 3:
             size = "flat width" if d["tool_kind"] == "flat" else "nose radius"
@@ -283,6 +316,17 @@ class PrepareScreen(CutScreen):
         elif n == 7:
             self.edit("spring_passes", "7 spring passes after the last: ")
         self.redraw()
+
+    def power_flat(self, d: dict) -> None:
+        """A power thread's tip turned to a flat starts at the standard's flat (back to a
+        radius: the config's)."""
+        lim, shop_tip = thread_limits(self.app.spec), self.app.shop.tool
+        if not is_power_form(lim.spec.form):
+            return
+        if d["tool_kind"] == "flat":
+            d["tool_size_mm"], d["tip_from"] = standard_tip(lim).size, "standard"
+        elif shop_tip.kind == "radius":
+            d["tool_size_mm"], d["tip_from"] = shop_tip.size, "config"
 
     def on_pick_list_picked(self, event: PickList.Picked) -> None:
         if self.editing == "method":

@@ -2,7 +2,8 @@
 series → size → pitch), or a designation typed (letters, or numbers with ``.``: 10.1.5).
 
 A thread picked from a list is the catalogue's: external, the usual class; "This thread"
-turns it internal, changes the class, the hand and the starts.
+turns it internal, changes the class, the hand and the starts. The "Special thread" family
+opens the ``special`` screen, which hands the thread it makes back here (``take_special``).
 """
 
 from __future__ import annotations
@@ -47,14 +48,12 @@ class Walk:
     series: str | None = None
     size: str | None = None
     base: ThreadSpec | None = None         # size and pitch picked
-    kind: str | None = None                # a special thread's kind
     spec: ThreadSpec | None = None         # the complete thread
     choosing_class: bool = False           # the class list, for ``spec``
-    special: dict = field(default_factory=dict)
     history: list = field(default_factory=list)
 
     def snapshot(self) -> None:
-        self.history.append(replace(self, history=[], special=dict(self.special)))
+        self.history.append(replace(self, history=[]))
 
     def restore(self) -> bool:
         if not self.history:
@@ -64,17 +63,6 @@ class Walk:
         self.__dict__.update(last.__dict__)
         self.history = hist
         return True
-
-
-SPECIAL_STEPS = (
-    ("unit", "Special thread: diameters in"),
-    ("major", "Major diameter"),
-    ("pitch_kind", "Pitch given as"),
-    ("pitch", "Pitch"),
-    ("angle", "Form angle"),
-    ("allowance", "Allowance on PD and major (0 for none)"),
-    ("pd_tol", "Pitch-diameter tolerance (0 for basic only)"),
-)
 
 
 def limits_table(spec: ThreadSpec, display_unit: str) -> Table:
@@ -148,8 +136,6 @@ class ThreadScreen(ShopScreen):
         yield Static("", id="message", classes="message")
         yield Static("", id="crumbs")
         yield PickList(id="choices")
-        yield Static("", id="entry-label")
-        yield KeypadEntry(prompt="> ", id="number")
         yield Static("", id="summary")
         yield Static("", id="limits")
 
@@ -233,8 +219,6 @@ class ThreadScreen(ShopScreen):
             items += [(d, ("typed", d)) for d in favourites]
             items += [(g.title, ("group", g.key)) for g in walk.GROUPS]
             return "Thread family, favourite or recent (. types a size)", items
-        if w.group == "special":
-            return self.special_choices()
         common = walk.common(w.group)
         if common and not w.more:
             return "Common sizes, coarse pitch", (
@@ -258,20 +242,11 @@ class ThreadScreen(ShopScreen):
     def show_step(self) -> None:
         title, items = self.choices()
         picks = self.query_one("#choices", PickList)
-        number = self.query_one("#number", KeypadEntry)
-        label = self.query_one("#entry-label", Static)
-        entry_step = self.special_entry_step()
         picks.display = bool(items)
-        number.display = entry_step is not None
-        label.display = entry_step is not None
         if items:
             picks.set_items(items, title)
             if not self.query_one("#designation", KeypadEntry).has_focus:
                 picks.focus()
-        if entry_step is not None:
-            label.update(entry_step)
-            number.clear()
-            number.focus()
         self.query_one("#crumbs", Static).update(self.crumbs())
         self.show_result()
 
@@ -329,24 +304,23 @@ class ThreadScreen(ShopScreen):
             w.snapshot()
             w.spec = spec
             w.choosing_class = False
-        elif what == "special_pick":
-            w.snapshot()
-            key, choice = v
-            w.special[key] = choice
+        elif what == "group" and v == "special":   # entered on a screen of its own
+            self.say("")
+            self.app.screen_for("special").begin()
+            self.app.goto("special")
+            return
         else:
             w.snapshot()
             setattr(w, what, v)
-            if what == "group" and v != "special" and len(walk.series(v)) == 1:
+            if what == "group" and len(walk.series(v)) == 1:
                 w.series = walk.series(v)[0]
             if what == "size":
                 specs = walk.pitches(w.group, w.series, w.size)
                 if len(specs) == 1:
                     w.base = specs[0]
-            if w.base is not None and w.group != "special":
+            if w.base is not None:
                 w.spec = w.base.with_(pitch_implied=False)   # external, the usual class
         self.say("")
-        if w.group == "special" and w.spec is None and self.special_done():
-            self.make_special()
         self.show_step()
 
     def final_option(self, option: str) -> None:
@@ -407,89 +381,12 @@ class ThreadScreen(ShopScreen):
         else:
             self.say("This is the first step: pick a thread family.")
 
-    # -- special threads (keypad form) -------------------------------------------------------
-    def special_entry_step(self) -> str | None:
-        w = self.walk
-        if w.group != "special" or w.spec is not None:
-            return None
-        for key, prompt in SPECIAL_STEPS:
-            if key in w.special:
-                continue
-            if key in ("major", "pitch", "allowance", "pd_tol"):
-                unit = w.special.get("unit", "mm")
-                if key == "pitch" and w.special.get("pitch_kind") == "tpi":
-                    return "Threads per inch"
-                return f"{prompt} [{unit}]"
-            return None
-        return None
-
-    def special_choices(self) -> tuple[str, list]:
-        w = self.walk
-        for key, prompt in SPECIAL_STEPS:
-            if key in w.special:
-                continue
-            if key == "unit":
-                return prompt, [("mm", ("special_pick", ("unit", "mm"))),
-                                ("inch", ("special_pick", ("unit", "in")))]
-            if key == "pitch_kind":
-                return prompt, [("pitch in mm", ("special_pick", ("pitch_kind", "mm"))),
-                                ("threads per inch", ("special_pick", ("pitch_kind", "tpi")))]
-            if key == "angle":
-                return prompt, [("60° (ISO, Unified)", ("special_pick", ("angle", 60.0))),
-                                ("55° (Whitworth)", ("special_pick", ("angle", 55.0))),
-                                ("47.5° (BA)", ("special_pick", ("angle", 47.5)))]
-            return "", []
-        if w.kind is None:
-            return "External or internal", [("external (screw)", ("kind", "external")),
-                                            ("internal (nut)", ("kind", "internal"))]
-        return "", []
-
-    def special_done(self) -> bool:
-        return all(k in self.walk.special for k, _ in SPECIAL_STEPS) and self.walk.kind is not None
-
-    @on(KeypadEntry.Submitted, "#number")
-    def number_submitted(self, event: KeypadEntry.Submitted) -> None:
-        from shopterm.units import parse_number
-        w = self.walk
-        step = next((k for k, _ in SPECIAL_STEPS if k not in w.special), None)
-        if step is None:
-            return
-        try:
-            value = parse_number(event.value)
-            if step in ("major", "pitch") and value <= 0:
-                raise ShoptermError("It must be greater than zero.")
-            if step == "pd_tol" and value < 0:
-                raise ShoptermError("A tolerance cannot be negative.")
-        except ShoptermError as exc:
-            self.say(str(exc), error=True)
-            return
-        w.snapshot()
-        w.special[step] = value
-        self.say("")
-        if self.special_done():
-            self.make_special()
+    def take_special(self, spec: ThreadSpec) -> None:
+        """Show a special thread made on the ``special`` screen as the thread chosen."""
+        self.walk.snapshot()
+        self.walk.group, self.walk.spec = "special", spec
+        self.say(f"{spec.designation}: Enter uses it, + goes on to the set-up.")
         self.show_step()
-
-    def make_special(self) -> None:
-        from shopterm.standards import special
-        from shopterm.units import to_mm
-        w = self.walk
-        s = w.special
-        unit = s["unit"]
-        try:
-            kwargs = dict(angle_deg=s["angle"], kind=w.kind, unit=unit,
-                          allowance_mm=to_mm(s["allowance"], unit),
-                          pd_tolerance_mm=to_mm(s["pd_tol"], unit) or None)
-            if s["pitch_kind"] == "tpi":
-                kwargs["tpi"] = s["pitch"]
-            else:
-                kwargs["pitch_mm"] = to_mm(s["pitch"], unit)
-            spec = special.make(to_mm(s["major"], unit), **kwargs)
-            limits(spec)
-        except ShoptermError as exc:
-            self.say(f"{exc} Press - to change the last value.", error=True)
-            return
-        w.spec = spec
 
     # -- recent threads ----------------------------------------------------------------------
     def app_recent(self) -> list[str]:

@@ -62,8 +62,9 @@ class WireChoiceScreen(ShopScreen):
         self.redraw()
 
     def items(self) -> list[tuple[str, object]]:
-        """Return the owned sets that fit, best first (or the best size), then 'type'."""
-        from shopterm.cutting.wires import wire_range
+        """Return the owned sets that fit, best first (or the best size), then 'type' (and
+        the gear-tooth caliper for a trapezoidal or Acme thread)."""
+        from shopterm.cutting.wires import is_power_form, wire_range
         spec = self.app.spec
         rng = wire_range(spec.form, spec.pitch)
         owned = sorted((w for w in self.app.shop.wires if rng.fits(w.size)),
@@ -72,6 +73,8 @@ class WireChoiceScreen(ShopScreen):
         if not owned:
             out.append((f"best size {fmt(self.app, rng.best)}", rng.best))
         out.append(("type a measured size", "type"))
+        if is_power_form(spec.form):
+            out.append(("gear-tooth caliper (thickness at the pitch line)", "caliper"))
         return out
 
     def redraw(self) -> None:
@@ -100,6 +103,10 @@ class WireChoiceScreen(ShopScreen):
         self.refresh_chrome()
 
     def on_pick_list_picked(self, event: PickList.Picked) -> None:
+        if event.value == "caliper":
+            if self.app.record_setup({"measure_with": "caliper"}) is not None:
+                self.app.goto("caliper")
+            return
         if event.value == "type":
             self.typing = True
             self.query_one("#wire-size", LengthEntry).clear()
@@ -135,7 +142,11 @@ class WireChoiceScreen(ShopScreen):
         except ShoptermError as exc:
             self.say(str(exc), error=True)
             return
-        if self.app.record_setup({"wire_mm": size}) is None:
+        from shopterm.cutting.wires import is_power_form
+        values = {"wire_mm": size}
+        if is_power_form(spec.form):
+            values["measure_with"] = "wires"        # not the caliper (``caliper.uses_caliper``)
+        if self.app.record_setup(values) is None:
             self.say("The wire was not changed (see the message above).", error=True)
             return
         self.app.goto("wires")

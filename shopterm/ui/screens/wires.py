@@ -35,7 +35,22 @@ from shopterm.ui.widgets.entry import KeypadEntry
 __all__ = ["WiresScreen", "ReadingSet", "reading_sets", "band_picture", "chart_rows"]
 
 #: Characters a keyboard may add after a number to give its unit (``10.2mm``, ``.402in``, ``.4"``).
+#: From this lead angle on the set line shows the simple formula's PD beside the exact one
+#: (a two-start trapezoidal screw, 8°: they differ by about 0.1 mm). Our own threshold.
+BIG_LEAD_ANGLE_DEG = 5.0
 UNIT_CHARS = set("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ\" ")
+
+
+def feed_slide(values: dict) -> tuple[str, float | None]:
+    """Return (the slide the set-up ``values`` feed with, the compound's angle or None).
+
+    Radial and alternating-flank cuts feed on the cross-slide (the alternating cut's compound
+    lies parallel to the bed, 90°, and only shifts the tool sideways: no feed angle).
+    """
+    if values.get("method") in ("radial", "alternating"):
+        return "cross-slide", None
+    angle = values.get("compound_angle_deg")
+    return "compound", (float(angle) if angle is not None else None)
 
 
 # ---- the screen -----------------------------------------------------------------------------
@@ -124,8 +139,11 @@ class WiresScreen(ShopScreen):
             self.redraw()
 
     def route(self) -> str:
+        from shopterm.ui.screens.caliper import uses_caliper
         spec = self.app.spec
-        return "fitcheck" if spec is not None and not spec.is_external else self.SCREEN_NAME
+        if spec is not None and not spec.is_external:
+            return "fitcheck"
+        return "caliper" if uses_caliper(self.app) else self.SCREEN_NAME
 
     # -- what the screen works from ----------------------------------------------------------
     @property
@@ -149,10 +167,7 @@ class WiresScreen(ShopScreen):
 
     def feed_slide(self) -> tuple[str, float | None]:
         """Return (the slide the user feeds with, compound angle from the set-up or None)."""
-        values = self.app.setup_values()
-        slide = "cross-slide" if values.get("method") == "radial" else "compound"
-        angle = values.get("compound_angle_deg")
-        return slide, (float(angle) if angle is not None else None)
+        return feed_slide(self.app.setup_values())
 
     def tapered(self) -> bool:
         return taperview.is_tapered(self.app.spec)
@@ -278,6 +293,8 @@ class WiresScreen(ShopScreen):
             if not r.steady:
                 set_text.append(" TOO WIDE", style="bold reverse")
         set_text.append(f" → PD {self.fmt(m.pitch_diameter)}{where}")
+        if m.pd.lead_angle_deg >= BIG_LEAD_ANGLE_DEG:     # the simple formula is well off
+            set_text.append(f" (simple formula {self.fmt(m.pd.pd_simple, False)})")
         self.query_one("#set-line", Static).update(set_text)
 
         feed = m.feed_aim

@@ -16,8 +16,13 @@ class KeyBar(Static):
     KeyBar { dock: bottom; height: 1; background: $panel; color: $text; padding: 0 1; }
     """
 
+    hints: list[tuple[str, str]] | None = None
+
     def show_hints(self, hints: list[tuple[str, str]]) -> None:
-        """Show ``(key label, what it does)`` pairs."""
+        """Show ``(key label, what it does)`` pairs (nothing is redrawn if they are the same)."""
+        if hints == self.hints:
+            return
+        self.hints = hints
         out = Text(no_wrap=True, overflow="ellipsis")
         for i, (k, what) in enumerate(hints):
             if i:
