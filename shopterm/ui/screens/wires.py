@@ -89,6 +89,7 @@ class WiresScreen(ShopScreen):
         super().__init__()
         self.draft = ""            # the entry's text not yet confirmed (kept over a re-compose)
         self.plane: float | None = None   # tapered: the measuring plane [mm from the small end]
+        self.plane_for: tuple = ()        # the (job, thread) that plane is for
         self.taper_reading = None         # tapered: the last TaperReading measured
 
     def compose_body(self) -> ComposeResult:
@@ -176,8 +177,9 @@ class WiresScreen(ShopScreen):
         """Return the measuring plane of a tapered thread [mm from the small end], else None."""
         if not self.tapered():
             return None
-        if self.plane is None:
+        if self.plane is None or self.plane_for != (self.app.job, self.app.spec):
             self.plane = taperview.default_plane(self.app.state, self.limits())
+            self.plane_for = (self.app.job, self.app.spec)
         return self.plane
 
     def measure(self, readings: list[float], wire: float):
