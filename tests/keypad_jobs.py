@@ -67,9 +67,9 @@ G34_INTERNAL = (25.279, 25.421)  # ISO 228-1, G3/4 internal: D2 25.279, + TD2 0.
 R12_GAUGE_LENGTH = 8.2         # ISO 7-1 table 1, size 1/2: gauge length [mm] (from memory)
 PIPE_TAPER = 1 / 16            # ISO 7-1: taper 1 in 16 on diameter (from memory)
 
-#: Pipe threads by the list walk: the family (on the list's second page), series, size.
-R12_WALK = (("Thread family", "Pipe threads: G, R, NPT"), ("Series", "R"), ("Size", "1/2"))
-G34_WALK = (("Thread family", "Pipe threads: G, R, NPT"), ("Series", "G"), ("Size", "3/4"))
+#: Pipe threads by the list walk: the family, then its common sizes.
+R12_WALK = (("Thread family", "Pipe threads: G, R, NPT"), ("Common sizes", "R1/2"))
+G34_WALK = (("Thread family", "Pipe threads: G, R, NPT"), ("Common sizes", "G3/4A"))
 #: Between centres (for the set-over), running out into a relief groove.
 CENTRES = (("how is the work held?", "between centres (carrier and driving plate)"),
            ("where does the tool run out", "into a relief groove (undercut)"))

@@ -24,14 +24,16 @@ class Group:
     series: tuple[str, ...] | None = None   # None: every series of the families
 
 
+#: In the order a shop asks for them: after up to three recent threads and the config's
+#: favourites the first page of the thread screen holds six of them (nine digits a page).
 GROUPS: tuple[Group, ...] = (
     Group("iso", "ISO metric", ("iso",)),
     Group("unified", "Unified inch", ("unified",)),
     Group("whitworth", "Whitworth (BSW, BSF)", ("whitworth",), ("BSW", "BSF")),
+    Group("pipe", "Pipe threads: G, R, NPT", ("pipe",)),
+    Group("power", "Leadscrew: trapezoidal, Acme", ("trapezoidal", "acme", "square")),
     Group("ba", "BA", ("ba",)),
     Group("me", "Model engineer (32/40 tpi)", ("whitworth",), ("ME",)),
-    Group("power", "Leadscrew: trapezoidal, Acme", ("trapezoidal", "acme", "square")),
-    Group("pipe", "Pipe threads: G, R, NPT", ("pipe",)),
     Group("special", "Special thread", ("special",)),
 )
 
@@ -104,6 +106,11 @@ COMMON: dict[str, tuple[tuple[str, str, float | None], ...]] = {
               ("Tr", "Tr20", 4.0), ("Tr", "Tr24", 5.0), ("Tr", "Tr32", 6.0),
               ("Tr", "Tr40", 7.0), ("ACME", "1/2", None), ("ACME", "3/4", None),
               ("ACME", "1", None)),
+    # Pipe threads: the sizes most met on fittings, hoses and air lines, G and R 1/4 to 3/4 and
+    # 1/2 NPT (common practice, no source)
+    "pipe": (("G", "1/4", None), ("G", "3/8", None), ("G", "1/2", None), ("G", "3/4", None),
+             ("R", "1/4", None), ("R", "3/8", None), ("R", "1/2", None), ("R", "3/4", None),
+             ("NPT", "1/2", None)),
 }
 
 # The internal class that goes with a catalogue's usual external class: ISO 965-1 6H with 6g,

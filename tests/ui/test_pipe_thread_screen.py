@@ -28,12 +28,24 @@ async def test_walk_to_r_half_shows_gauge_plane_and_caution(make_app):
     async with app.run_test(size=(80, 24)) as pilot:
         picks = app.screen.query_one("#choices")
         await pick(pilot, picks, walk.group("pipe").title)
+        await pick(pilot, picks, "more sizes and pitches")  # past the common sizes
         await pick(pilot, picks, "R")
         await pick(pilot, picks, "1/2")
         text = screen_text(app)
         assert "standard tolerance" in text
         assert "R1/2" in text and "gauge plane" in text and CAUTION in text
         assert "19.906" in text and "19.681" in text   # ISO 7-1: 19.793 ± 1.8/16 (from memory)
+
+
+async def test_common_pipe_sizes_come_first(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        picks = app.screen.query_one("#choices")
+        await pick(pilot, picks, walk.group("pipe").title)
+        assert "Common sizes" in screen_text(app)
+        await pick(pilot, picks, "R1/2")                   # family and size: two digits
+        text = screen_text(app)
+        assert "R1/2" in text and "gauge plane" in text and CAUTION in text
 
 
 @pytest.mark.parametrize("typed", ["G3/4", "1/2-14 NPT", "Rp1/2", "G1/2A"])
