@@ -6,26 +6,17 @@ Designations read and written here:
 ``1/4 BSF``, ``1/4x40 ME``, ``3/8-32 ME`` (the tpi is required for ME).
 An internal thread is written with a trailing ``internal`` (``3/8 BSW internal``).
 
-Classes: BS 84 names external close, medium and free, internal medium and normal. Two are built
-in, external ``close`` and ``medium`` (``3/8 BSW close``, ``1/4 BSF medium``), from the BS 84:1956
-effective-diameter tolerance formula (recalled, not read in print: the Limits notes say so):
-
-    T = 0.002·∛D + 0.003·√L + 0.005·√p   [in]; D major diameter, L length of engagement
-                                                (taken as D), p pitch
-    medium bolt: effective tolerance T, close bolt: 2/3·T; no allowance (max = basic);
-    major diameter tolerance: the effective tolerance + 0.01·√p.
-
-Free (external) and medium/normal (internal) need BS 84's allowance and nut tables, which are not
-at hand: they are refused with a message that says how to get basic sizes or how to give the fit
-as a special thread. Without a class the limits are basic sizes. Model-engineer threads have no
-published tolerance table at all.
+Limits are basic sizes only. BS 84 names classes (external close, medium, free; internal medium,
+normal), but their tolerance tables are not built into shopterm, so a class word is refused with
+a message that says how to get basic sizes or how to give your own fit as a special thread.
+Model-engineer threads have no published tolerance table at all.
 
 Basic sizes are computed and rounded in inches as BS 84 prints them (0.0001 in), then converted
 to mm once: E = D − 0.640327P, core = D − 1.280654P, depth 0.640327P, crest and root radius
 0.137329P.
 
-References: BS 84 (Whitworth form, BSW and BSF series); model-engineer series as listed in
-BS 84.
+References: BS 84 (Whitworth form, BSW and BSF series); model-engineer series as printed in published model-engineering
+thread tables (sizes in use at 32 and 40 tpi).
 """
 
 from __future__ import annotations
@@ -50,8 +41,8 @@ RADIUS_FACTOR = 0.137329  # crest and root radius
 #: Basic sizes are printed to this resolution [in] (BS 84 tables).
 _ROUND_IN = 0.0001
 
-#: BSW: nominal size → tpi. BS 84 table. Sizes marked [P] are printed in
-#: BS 84 (1/8-40, 1/4-20, 3/8-16, 1/2-12, 3/4-10, 1-8); the rest from memory.
+#: BSW: nominal size → tpi. BS 84 table. Sizes marked [P] were read in print
+#: (1/8-40, 1/4-20, 3/8-16, 1/2-12, 3/4-10, 1-8); the rest from memory.
 BSW: dict[str, float] = {
     "1/8": 40,     # BS 84 [P]
     "3/16": 24,    # from memory
@@ -76,7 +67,7 @@ BSW: dict[str, float] = {
     "2": 4.5,      # from memory
 }
 
-#: BSF: nominal size → tpi. BS 84 table. [P] in 1/4-26, 5/16-22,
+#: BSF: nominal size → tpi. BS 84 table. [P] read in print: 1/4-26, 5/16-22,
 #: 3/8-20, 7/16-18, 1/2-16; the rest from memory.
 BSF: dict[str, float] = {
     "3/16": 32,    # from memory
@@ -96,7 +87,7 @@ BSF: dict[str, float] = {
 }
 
 #: Model-engineer series: Whitworth form at a constant 40 or 32 tpi. Sizes in use printed in
-#: BS 84: 5/32, 3/16, 7/32, 1/4 x 40; 5/16, 3/8 x 32; 3/8 x 40.
+#: published model-engineering tables [P]: 5/32, 3/16, 7/32, 1/4 x 40; 5/16, 3/8 x 32; 3/8 x 40.
 #: The others are from memory.
 ME: dict[int, tuple[str, ...]] = {
     40: ("1/8",        # from memory
@@ -128,10 +119,6 @@ BS84_CLASSES: dict[str, tuple[str, ...]] = {
     "external": ("close", "medium", "free"),
     "internal": ("medium", "normal"),
 }
-
-#: Classes with limits built in: BS 84:1956 effective-diameter tolerance as a multiple of T
-#: (medium bolt T, close bolt 2/3 T; from memory). Kind → class → factor.
-BUILT_CLASSES: dict[str, dict[str, float]] = {"external": {"close": 2 / 3, "medium": 1.0}}
 
 _SERIES_WORDS = {"BSW": "BSW", "WHITWORTH": "BSW", "WHIT": "BSW", "BSF": "BSF", "ME": "ME"}
 _KIND_WORDS = {"internal": "internal", "external": "external"}
@@ -201,7 +188,7 @@ def _near_sizes(size: str, sizes, fmt) -> tuple[str, ...]:
 
 
 def _refuse_class(spec: ThreadSpec, word: str) -> None:
-    base = format(spec.with_(tol_class=None))
+    base = format(spec)
     inch_d = spec.major / MM_PER_INCH
     special = f"SPECIAL {inch_d:.10g}x{_fmt_tpi(spec.tpi)}TPI 55 A<allowance> T<tolerance>"
     if spec.series == "ME":
@@ -211,21 +198,14 @@ def _refuse_class(spec: ThreadSpec, word: str) -> None:
             f"pitch-diameter tolerance (in inches) as a special thread: {special!r}.",
             (base,))
     all_words = sorted({w for ws in BS84_CLASSES.values() for w in ws})
-    if word.lower() in BUILT_CLASSES.get(spec.kind, {}):
-        return
     if word.lower() not in all_words:
         raise UnsupportedClass(
             f"{word!r} is not a BS 84 class (external: close, medium, free; internal: medium, "
             f"normal). shopterm gives BSW and BSF as basic sizes: type {base!r}.", (base,))
-    kinds = " and ".join(k for k, ws in BS84_CLASSES.items() if word.lower() in ws
-                         and word.lower() not in BUILT_CLASSES.get(k, {}))
-    built = [format(spec.with_(tol_class=c)) for c in BUILT_CLASSES.get(spec.kind, {})]
     raise UnsupportedClass(
-        f"The BS 84 {word} class ({kinds}) tolerances are not built into shopterm (no table "
-        f"at hand): type {base!r} for basic sizes"
-        + (f" or {' / '.join(repr(b) for b in built)}" if built else "")
-        + f", or give the fit from your BS 84 table as a special thread (allowance and "
-        f"tolerance in inches): {special!r}.", (base, *built))
+        f"The BS 84 {word} class tolerances are not built into shopterm (no printed BS 84 table "
+        f"was at hand to build them from): type {base!r} for basic sizes, or give the fit from your BS 84 table as a special thread (allowance and "
+        f"tolerance in inches): {special!r}.", (base,))
 
 
 def parse(text: str) -> ThreadSpec | None:
@@ -234,7 +214,7 @@ def parse(text: str) -> ThreadSpec | None:
     text: e.g. ``3/8 BSW``, ``1/4 BSF``, ``1/4x40 ME``, ``3/8-32 ME``.
     Raises ``UnknownThread`` for a size or tpi the series does not have, ``UnsupportedClass``
     for a class word (tolerance classes are not built in).
-    References: BS 84 (model-engineer series).
+    References: BS 84; published model-engineering tables (model-engineer series).
     """
     if not isinstance(text, str):
         return None
@@ -290,7 +270,6 @@ def parse(text: str) -> ThreadSpec | None:
 
     if m["cls"]:
         _refuse_class(spec, m["cls"])
-        spec = spec.with_(tol_class=m["cls"].lower())
     return spec
 
 
@@ -304,8 +283,6 @@ def format(spec: ThreadSpec) -> str:
         text = f"{spec.size}x{_fmt_tpi(spec.tpi)} ME"
     else:
         text = f"{spec.size} {spec.series}"
-    if spec.tol_class:
-        text += f" {spec.tol_class}"
     return text + " internal" if spec.kind == "internal" else text
 
 
@@ -330,7 +307,6 @@ def limits(spec: ThreadSpec) -> Limits:
         raise InvalidEntry(f"{spec.size} is not a Whitworth-form thread.")
     if spec.tol_class is not None:
         _refuse_class(spec, spec.tol_class)
-        return _class_limits(spec)
     d_in, e_in, core_in = basic_inches(spec)
     d, e, core = inch(d_in), inch(e_in), inch(core_in)
     p = spec.pitch
@@ -351,36 +327,10 @@ def limits(spec: ThreadSpec) -> Limits:
                   notes=notes, root_radius_min=r, root_radius_max=r)
 
 
-def effective_tolerance_in(spec: ThreadSpec) -> float:
-    """Return the BS 84 effective-diameter tolerance [in] of an external close or medium thread,
-    rounded to 0.0001 in: factor × (0.002·∛D + 0.003·√L + 0.005·√p), L = D.
-
-    References: BS 84:1956 tolerance formula (from memory, see the module docstring).
-    """
-    d, p = spec.major / MM_PER_INCH, 1.0 / spec.tpi
-    t = 0.002 * d ** (1 / 3) + 0.003 * d ** 0.5 + 0.005 * p ** 0.5
-    return round_to(BUILT_CLASSES[spec.kind][spec.tol_class] * t, _ROUND_IN)
-
-
-def _class_limits(spec: ThreadSpec) -> Limits:
-    d_in, e_in, core_in = basic_inches(spec)
-    te = effective_tolerance_in(spec)
-    td = round_to(te + 0.01 * (1.0 / spec.tpi) ** 0.5, _ROUND_IN)
-    p = spec.pitch
-    r = RADIUS_FACTOR * p
-    notes = (f"BS 84 {spec.tol_class} class from the 1956 tolerance formula as recalled, "
-             "not a printed table: check a close fit against your BS 84 copy.",
-             "Length of engagement taken as the diameter; no allowance (max = basic).")
-    return Limits(spec=spec, basic_major=inch(d_in), basic_pd=inch(e_in), basic_minor=inch(core_in),
-                  major_max=inch(d_in), major_min=inch(d_in - td), pd_max=inch(e_in),
-                  pd_min=inch(e_in - te), minor_max=inch(core_in), minor_min=None,
-                  depth=DEPTH_FACTOR * p, notes=notes, root_radius_min=r, root_radius_max=r)
-
-
 def catalogue() -> list[ThreadSpec]:
     """Return every BSW, BSF and model-engineer thread in the tables, external, basic size.
 
-    References: BS 84.
+    References: BS 84; published model-engineering tables.
     """
     out = [_make("BSW", size, tpi) for size, tpi in BSW.items()]
     out += [_make("BSF", size, tpi) for size, tpi in BSF.items()]
@@ -390,11 +340,8 @@ def catalogue() -> list[ThreadSpec]:
 
 
 def classes(spec: ThreadSpec) -> list[str]:
-    """Return the BS 84 classes shopterm gives limits for: external close and medium (BSW and
-    BSF); none for internal threads and model-engineer threads (basic sizes only).
+    """Return the classes shopterm can give limits for: none (basic sizes only).
 
-    References: BS 84 (classes named); the 1956 tolerance formula (module docstring).
+    References: BS 84 (classes named, tables not built in).
     """
-    if spec.series == "ME":
-        return []
-    return list(BUILT_CLASSES.get(spec.kind, {}))
+    return []

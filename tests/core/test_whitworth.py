@@ -1,6 +1,6 @@
 """Whitworth-form threads (BSW, BSF, model-engineer): BS 84 basic sizes, designations, errors.
 
-Check values are from BS 84 unless marked.
+Check values are from BS 84 as printed (tagged [P]) unless marked.
 """
 
 import math
@@ -20,7 +20,7 @@ IN = 25.4  # exact, NIST SP 811
 # --- the form --------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("value, published", [
-    (WHITWORTH_55.height, 0.960491),        # BS 84 H = 0.960491P
+    (WHITWORTH_55.height, 0.960491),        # BS 84 H = 0.960491P, [P]
     (WHITWORTH_55.depth, 0.640327),         # BS 84 h = 2/3 H = 0.640327P [P]
     (WHITWORTH_55.pd_offset, 0.640327),     # BS 84 E = D − 0.640327P [P]
     (WHITWORTH_55.minor_offset, 1.280654),  # BS 84 core = D − 1.280654P [P]
@@ -47,7 +47,7 @@ def test_radius_is_tangent_to_the_flanks_at_the_h6_truncation():
 # --- BSW basic sizes ---------------------------------------------------------------------------
 
 @pytest.mark.parametrize("designation, tpi, e_in, core_in", [
-    ("1/8 BSW", 40, 0.1090, 0.0930),  # BS 84 BSW basic 1/8-40
+    ("1/8 BSW", 40, 0.1090, 0.0930),  # BS 84 BSW basic 1/8-40, [P]
     ("1/4 BSW", 20, 0.2180, 0.1860),  # BS 84 BSW basic 1/4-20 [P]
     ("3/8 BSW", 16, 0.3350, 0.2950),  # BS 84 BSW basic 3/8-16 [P]
     ("1/2 BSW", 12, 0.4466, 0.3933),  # BS 84 BSW basic 1/2-12 [P]
@@ -84,7 +84,7 @@ def test_bsf_basic_effective_diameter_rederived():
 
 
 @pytest.mark.parametrize("text, size, tpi", [
-    ("5/32x40 ME", "5/32", 40),   # model-engineer sizes in use, BS 84
+    ("5/32x40 ME", "5/32", 40),   # model-engineer sizes in use, published ME series table [P]
     ("3/16x40 ME", "3/16", 40),   # [P]
     ("7/32x40 ME", "7/32", 40),   # [P]
     ("1/4x40 ME", "1/4", 40),     # [P]
@@ -170,65 +170,16 @@ def test_bsw_range_and_bsf_range():
     assert list(w.BSF)[0] == "3/16" and list(w.BSF)[-1] == "1"  # BSF 3/16–1 in (brief, BS 84)
 
 
-# --- classes: BS 84 close and medium (external) built in, the rest refused ------------------
+# --- classes: named by BS 84, not built in ----------------------------------------------------
 
-@pytest.mark.parametrize("text", ["3/8 BSW free", "3/8 BSW normal", "1/4 BSF medium internal",
-                                  "1/4 BSF normal internal"])
-def test_bs84_classes_not_at_hand_are_refused_with_a_way_forward(text):
+@pytest.mark.parametrize("text", ["3/8 BSW medium", "3/8 BSW close", "3/8 BSW free",
+                                  "3/8 BSW normal", "1/4 BSF medium internal", "3/8 BSW-medium"])
+def test_bs84_classes_are_refused_with_a_way_forward(text):
     with pytest.raises(UnsupportedClass) as exc:
         w.parse(text)
     msg = str(exc.value)
     assert "not built into shopterm" in msg and "SPECIAL" in msg
     assert exc.value.suggestions and w.parse(exc.value.suggestions[0]) is not None
-
-
-def test_internal_class_refused_through_the_registry_too():
-    with pytest.raises(UnsupportedClass, match=r"medium class \(internal\)"):
-        standards.parse("3/8 BSW medium internal")
-
-
-def _t_in(d: float, tpi: float) -> float:
-    # BS 84:1956 effective-diameter tolerance T = 0.002·∛D + 0.003·√L + 0.005·√p [in], L = D
-    # (from memory)
-    p = 1 / tpi
-    return 0.002 * d ** (1 / 3) + 0.003 * math.sqrt(d) + 0.005 * math.sqrt(p)
-
-
-@pytest.mark.parametrize("text,d,tpi,factor", [
-    ("3/8 BSW medium", 0.375, 16, 1.0),     # BS 84:1956 medium bolt: T (from memory)
-    ("3/8 BSW close", 0.375, 16, 2 / 3),    # BS 84:1956 close bolt: 2/3 T (from memory)
-    ("3/8 BSW-medium", 0.375, 16, 1.0),
-    ("1/4 BSF close", 0.25, 26, 2 / 3),
-    ("1 BSW medium", 1.0, 8, 1.0),
-])
-def test_bs84_close_and_medium_from_the_formula(text, d, tpi, factor):
-    # computed from the BS 84:1956 formula (from memory), rounded to 0.0001 in
-    spec = w.parse(text)
-    lim = w.limits(spec)
-    te = round(factor * _t_in(d, tpi), 4)
-    e = round(d - 0.640327 / tpi, 4)                     # BS 84 E = D − 0.640327P [P]
-    assert lim.pd_max / IN == pytest.approx(e, abs=1e-9)  # no allowance (from memory)
-    assert lim.pd_min / IN == pytest.approx(e - te, abs=1e-9)
-    assert lim.major_max / IN == pytest.approx(d, abs=1e-9)
-    td = round(te + 0.01 * math.sqrt(1 / tpi), 4)        # BS 84:1956 major: + 0.01√p (from memory)
-    assert lim.major_min / IN == pytest.approx(d - td, abs=1e-9)
-    assert "recalled" in lim.notes[0]
-    assert w.parse(spec.designation) == spec             # round trip
-
-
-def test_medium_three_eighths_bsw_value():
-    # 0.002·0.72112 + 0.003·0.61237 + 0.005·0.25 = 0.004529 -> 0.0045 in (computed from the
-    # BS 84:1956 formula, from memory)
-    assert w.effective_tolerance_in(w.parse("3/8 BSW medium")) == pytest.approx(0.0045, abs=1e-12)
-
-
-def test_classes_offered():
-    spec = w.parse("3/8 BSW")
-    assert w.classes(spec) == ["close", "medium"]
-    assert w.classes(spec.with_(kind="internal")) == []
-    assert w.classes(w.parse("1/4x40 ME")) == []
-    with pytest.raises(UnsupportedClass):
-        w.limits(spec.with_(tol_class="free"))
 
 
 def test_unknown_class_word_lists_the_bs84_classes():
@@ -243,6 +194,13 @@ def test_model_engineer_class_refused_pointing_to_special():
     # the suggested special really parses (allowance/tolerance placeholders filled in)
     from shopterm.standards import special
     assert special.parse("SPECIAL 0.25x40TPI 55 A0.001 T0.002").form is WHITWORTH_55
+
+
+def test_classes_and_limits_refuse_a_class_set_by_hand():
+    spec = w.parse("3/8 BSW")
+    assert w.classes(spec) == []
+    with pytest.raises(UnsupportedClass):
+        w.limits(spec.with_(tol_class="medium"))
 
 
 # --- errors ------------------------------------------------------------------------------------
