@@ -221,7 +221,8 @@ class ThreadScreen(ShopScreen):
             return "Thread family, favourite or recent (. types a size)", items
         common = walk.common(w.group)
         if common and not w.more:
-            return "Common sizes, coarse pitch", (
+            pitch = {"power": ", preferred pitch", "pipe": ""}.get(w.group, ", coarse pitch")
+            return f"Common sizes{pitch}", (
                 [(s.designation, ("thread", s)) for s in common]
                 + [("more sizes and pitches", ("more", True))])
         if w.series is None and len(walk.series(w.group)) > 1:
