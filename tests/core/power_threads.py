@@ -1,10 +1,9 @@
-"""Hand-made trapezoidal and Acme threads for the cutting-core tests, until the standards
-families for them are in the catalogue.
+"""Trapezoidal and Acme threads for the cutting-core tests.
 
-``tr(...)`` and ``acme(...)`` build a ``Limits`` from the basic-profile formulas of ISO 2904 and
-ASME B1.5 (computed here, not looked up), with a pitch-diameter band given by the caller. When
-``parse("Tr24x5-7e")`` works, ``power_limits`` returns the catalogue's own limits instead, so
-each test can be switched over by changing one function.
+``power_limits(designation)`` gives the catalogue's own limits. ``tr(...)`` and ``acme(...)``
+build a ``Limits`` by hand from the basic-profile formulas of ISO 2904 and ASME B1.5 (computed
+here, not looked up), with a pitch-diameter band given by the caller, for tests that need a
+thread the catalogue does not hold.
 
 The module also works as a stand-in thread family (``parse``/``limits``/``format``/
 ``catalogue``/``classes``) so that the identify tests can put these threads through the real
@@ -15,7 +14,6 @@ from __future__ import annotations
 
 import math
 
-from shopterm.errors import UnknownThread
 from shopterm.standards.forms import ACME_29, TRAPEZOIDAL_30, ThreadForm
 from shopterm.standards.spec import Limits, ThreadSpec
 
@@ -88,14 +86,10 @@ def acme(d_in: float, tpi: float, starts: int = 1, kind: str = "external",
                   (h * p + clear / 2) * INCH, clearance=clear * INCH, tip_flat=flat * INCH)
 
 
-def power_limits(designation: str, fallback: Limits) -> Limits:
-    """Return the catalogue's limits for ``designation`` once the family is in; until then
-    the hand-made ``fallback``."""
+def power_limits(designation: str) -> Limits:
+    """Return the catalogue's limits for ``designation``."""
     from shopterm.standards import limits, parse
-    try:
-        return limits(parse(designation))
-    except UnknownThread:
-        return fallback
+    return limits(parse(designation))
 
 
 # ---- a stand-in family for the registry -------------------------------------------------------

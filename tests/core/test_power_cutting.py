@@ -18,7 +18,7 @@ import power_threads as pt
 from shopterm.cutting import wires as w
 from shopterm.cutting.tool import (WORKING_CLEARANCE_DEG, check_tool, form_tip_flat,
                                    helix_angle_deg, power_tool, standard_tip)
-from shopterm.errors import InvalidEntry, UnknownThread
+from shopterm.errors import InvalidEntry
 from shopterm.lathe.machine import ToolTip, WireSize
 from shopterm.standards.forms import ACME_29, ISO_60, TRAPEZOIDAL_30, ThreadForm
 from test_wires import _min_distance
@@ -30,19 +30,19 @@ SQUARE = ThreadForm("square-test", "Square", 0.0, 0.5, 0.0, 0.0)
 
 
 def tr24x5():
-    return pt.power_limits("Tr24x5", pt.tr(24, 5))
+    return pt.power_limits("Tr24x5")
 
 
 def tr24x10_p5():
-    return pt.power_limits("Tr24x10(P5)", pt.tr(24, 5, starts=2))
+    return pt.power_limits("Tr24x10(P5)")
 
 
 def acme_1_5():
-    return pt.power_limits("1-5 ACME", pt.acme(1.0, 5))
+    return pt.power_limits("1-5 ACME")
 
 
 def acme_1_04p_08l():
-    return pt.power_limits("1.000-0.4P-0.8L-ACME", pt.acme(1.0, 2.5, starts=2))
+    return pt.power_limits("1.000-0.4P-0.8L-ACME")
 
 
 # ---- wires ---------------------------------------------------------------------------------------
@@ -534,14 +534,8 @@ def test_identify_refusals_for_power_measurements():
         measured(major=24, angle=10)
 
 
-def test_catalogue_offers_power_threads_once_the_families_land():
+def test_catalogue_offers_power_threads():
     from shopterm.cutting.identify import identify
-    from shopterm.standards import parse
-    try:
-        parse("Tr24x5")
-    except UnknownThread:
-        pytest.skip("the trapezoidal family is not in the catalogue yet (power-std adds it); "
-                    "until then the hand-made family above stands in")
     got = identify(major=23.9, pitch=5.0, angle=30)
     assert got.candidates[0].spec.form.angle_deg == 30
     assert got.candidates[0].designation.startswith("Tr24x5")
