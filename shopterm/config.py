@@ -21,6 +21,7 @@ import sys
 import tomllib
 from dataclasses import dataclass
 from fractions import Fraction
+from functools import cached_property
 from pathlib import Path
 from typing import Any
 
@@ -54,10 +55,25 @@ class Config:
     path: Path
     how_found: str
     theme_dirs: tuple[Path, ...] = ()     # extra theme folders the config names (display.theme_dir)
-    favourites: tuple[str, ...] = ()      # designations as the standards print them
-    problems: tuple[str, ...] = ()        # mistakes that cost one entry only (a bad favourite)
+    #: [favourites] threads as written, each with its line: checked against the standards only
+    #: when ``favourites`` or ``problems`` is first asked for (not on the start-up path)
+    favourites_written: tuple[tuple[str, int | None], ...] = ()
     #: [pi] shutdown_command, split into words: the menu offers "Shut the Pi down" when set
     shutdown_command: tuple[str, ...] = ()
+
+    @cached_property
+    def _favourites_checked(self) -> tuple[tuple[str, ...], tuple[str, ...]]:
+        return check_favourites(self.favourites_written, self.path)
+
+    @property
+    def favourites(self) -> tuple[str, ...]:
+        """Return the favourite threads the standards know, as they print them, each once."""
+        return self._favourites_checked[0]
+
+    @property
+    def problems(self) -> tuple[str, ...]:
+        """Return the mistakes that cost one entry only (a favourite the standards refuse)."""
+        return self._favourites_checked[1]
 
 
 # ---------------------------------------------------------------------------------------------
@@ -502,7 +518,7 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     slots = r.integer(w, idx, "driving_plate_slots", what="the driving plate's slots",
                       example="4")
 
-    favourites, problems = _favourites(r, r.table((), data, "favourites"))
+    favourites = _favourites(r, r.table((), data, "favourites"))
 
     lathe = Lathe(name=name, leadscrew=leadscrew, cross_dial=cross, compound_dial=compound,
                   compound_zero=zero, gears=gears, fixed_ratio=fixed_ratio, gearbox=gearbox,
@@ -517,17 +533,15 @@ def _read(r: _Reader, data: dict, path: Path, how_found: str) -> Config:
     if side_clearance is not None:
         shop_kw["tool_side_clearance_deg"] = side_clearance
     return Config(lathe=lathe, shop=Shop(**shop_kw), path=path, how_found=how_found,
-                  theme_dirs=theme_dirs, favourites=favourites, problems=problems,
+                  theme_dirs=theme_dirs, favourites_written=favourites,
                   shutdown_command=_pi(r, r.table((), data, "pi")))
 
 
-def _favourites(r: _Reader, t: dict | None) -> tuple[tuple[str, ...], tuple[str, ...]]:
-    """Return (the favourite threads as designations, one problem message per bad one).
-
-    A designation the standards do not know is reported and left out; the others are kept.
-    """
+def _favourites(r: _Reader, t: dict | None) -> tuple[tuple[str, int | None], ...]:
+    """Return the favourite threads as written, each with its line (shape checked here; what
+    each names is checked by ``check_favourites`` when first needed)."""
     if t is None:
-        return (), ()
+        return ()
     w = ("favourites",)
     r.keys(w, t, ("threads",))
     value = t.get("threads", [])
@@ -535,20 +549,33 @@ def _favourites(r: _Reader, t: dict | None) -> tuple[tuple[str, ...], tuple[str,
     if not isinstance(value, list):
         raise r.error(w + ("threads",), f"'threads' must be a list of designations in quotes, "
                                         f"e.g. threads = {example}.")
-    from shopterm.standards import parse, limits
-    good: list[str] = []
-    problems: list[str] = []
+    out = []
     for i, item in enumerate(value):
         if not isinstance(item, str) or not item.strip():
             raise r.error(w + ("threads",), f"favourite {i + 1} ({item!r}) is not a designation "
                                             f"in quotes, e.g. threads = {example}.")
+        out.append((item.strip(), r.line_of_text(w + ("threads",), item)))
+    return tuple(out)
+
+
+def check_favourites(written, path) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    """Return (the favourite threads as the standards print them, each once; one problem
+    message per favourite the standards refuse, naming key and line).
+
+    written: (designation, line) pairs as read; path: the config file. A refused favourite is
+    reported and left out; the others are kept.
+    """
+    from shopterm.standards import limits, parse
+    good: list[str] = []
+    problems: list[str] = []
+    for item, line in written:
         try:
             spec = parse(item)
             limits(spec)
         except ShoptermError as exc:
             problems.append(str(ConfigError(f"favourite '{item}' left out: {exc}",
-                                            path=str(r.path), key="favourites.threads",
-                                            line=r.line_of_text(w + ("threads",), item))))
+                                            path=str(path), key="favourites.threads",
+                                            line=line)))
             continue
         if spec.designation not in good:
             good.append(spec.designation)

@@ -40,7 +40,8 @@ class ShoptermApp(App):
         self.spec = None           # the chosen ThreadSpec of the open job
         self._screens_by_name: dict[str, Screen] = {}
         self.current_name: str | None = None
-        self._start_notes: list[str] = []     # theme and config problems, shown once mounted
+        self._start_notes: list[str] = []     # theme problems, shown once mounted
+        self._favourites: tuple[str, ...] | None = None   # checked after the first paint
         self._started = False
         self._resume_offer = None             # the unfinished job to ask about, on mount
         self._goto_on_mount: str | None = None
@@ -89,6 +90,18 @@ class ShoptermApp(App):
         # After the first paint: the screen is there to use a frame sooner; the toast follows.
         from shopterm.config import start_message
         self.call_after_refresh(self.notify, start_message(self.config), timeout=4)
+        self.call_after_refresh(self._check_favourites)
+
+    def _check_favourites(self) -> None:
+        """Check the config's favourites against the standards (after the first paint: it
+        loads thread tables the first screen does not need), say which were left out, and
+        have the screen show them as the standards print them."""
+        written = [text for text, _ in getattr(self.config, "favourites_written", ())]
+        self._favourites = tuple(getattr(self.config, "favourites", ()))
+        for problem in getattr(self.config, "problems", ()):
+            self.notify(problem, severity="warning", timeout=8)
+        if list(self._favourites) != written and hasattr(self.screen, "favourites_changed"):
+            self.screen.favourites_changed()
 
     # -- the job record ----------------------------------------------------------------------
     def _open_store(self) -> None:
@@ -190,8 +203,7 @@ class ShoptermApp(App):
         from shopterm.ui.themes import load_themes, set_start_theme
         themes, problems = load_themes(self.config.theme_dirs)
         message = set_start_theme(self, self.shop.theme, themes=themes)
-        self._start_notes = (problems + ([message] if message else [])
-                             + list(getattr(self.config, "problems", ())))
+        self._start_notes = problems + ([message] if message else [])
 
     # -- screens -----------------------------------------------------------------------------
     def screen_for(self, name: str) -> Screen:
@@ -408,8 +420,11 @@ class ShoptermApp(App):
         self.goto("thread")
 
     def favourite_threads(self) -> list[str]:
-        """Return the config's favourite threads, as designations."""
-        return list(getattr(self.config, "favourites", ()))
+        """Return the config's favourite threads: as written until they are checked (after the
+        first paint), then as the standards print them, the ones they refuse left out."""
+        if self._favourites is None:
+            return [text for text, _ in getattr(self.config, "favourites_written", ())]
+        return list(self._favourites)
 
     def recent_threads(self) -> list[str]:
         """Return the designations of recent jobs, newest first, each once."""

@@ -162,3 +162,26 @@ async def test_enter_after_a_typed_designation_uses_it(make_app):
         await pilot.press("enter")            # use it
         assert app.spec is not None and app.spec.designation == "M6x1-6g"
         assert app.state.current_designation == "M6x1-6g"
+
+
+async def test_favourites_are_checked_after_the_first_paint(tmp_path, monkeypatch):
+    # the first list shows the favourites as written (no thread tables loaded before the first
+    # paint); once checked, a refused one is left out with a warning and the others are shown
+    # as the standards print them
+    from shopterm.config import read_config_text
+    from shopterm.resources import sample_config_path
+    from shopterm.ui.app import ShoptermApp
+    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "cfg"))
+    text = sample_config_path().read_text(encoding="utf-8").replace(
+        'threads = ["M12x1.75-6g", "3/8-16 UNC-2A", "1/2-13 UNC-2A"]',
+        'threads = ["m12x1.75-6g", "M10x1.6-6g"]')
+    config = read_config_text(text, sample_config_path(), "test")
+    assert [t for t, _ in config.favourites_written] == ["m12x1.75-6g", "M10x1.6-6g"]
+    app = ShoptermApp(config, data_dir=tmp_path / "data")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await pilot.pause()
+        await pilot.pause()
+        assert app.favourite_threads() == ["M12x1.75-6g"]
+        shown = [lbl for lbl, _ in app.screen.query_one("#choices").page_items()]
+        assert shown[0] == "M12x1.75-6g" and "M10x1.6-6g" not in shown
+        assert any("M10x1.6-6g" in n.message for n in app._notifications)

@@ -146,6 +146,11 @@ class ThreadScreen(ShopScreen):
         picks.focus()
         self.show_step()
 
+    def favourites_changed(self) -> None:
+        """Show the first list again once the app has checked the favourites."""
+        if self.walk.group is None and self.walk.spec is None:
+            self.show_step()
+
     # -- typed designation -------------------------------------------------------------------
     def action_type_designation(self) -> None:
         entry = self.query_one("#designation", KeypadEntry)
